@@ -1,0 +1,13 @@
+//! `tiltbook sweep` (being built).
+
+use super::CliError;
+use clap::Args;
+use std::io::Write;
+use std::process::ExitCode;
+
+#[derive(Debug, Args)]
+pub struct SweepArgs {}
+
+pub fn run(_args: &SweepArgs, _out: &mut dyn Write) -> Result<ExitCode, CliError> {
+    Err(CliError::Usage("this command is not ready yet".into()))
+}
