@@ -6,6 +6,10 @@
 pub mod blocks;
 pub mod cli;
 pub mod geometry;
+pub mod shop;
+pub mod store;
 pub mod sweep;
+pub mod traveller;
+pub mod tui;
 pub mod uncertainty;
 pub mod units;

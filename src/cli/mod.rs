@@ -6,6 +6,8 @@ use std::process::ExitCode;
 use thiserror::Error;
 
 pub mod center;
+pub mod check;
+pub mod report;
 pub mod shop;
 pub mod stack;
 pub mod sweep;
@@ -75,6 +77,10 @@ pub enum Command {
     Center(center::CenterArgs),
     /// List the shop's fixtures and block sets, or write a starting shop file
     Shop(shop::ShopArgs),
+    /// Check traveller and plan files: every problem as file:line:col: message
+    Check(check::CheckArgs),
+    /// A report of a traveller: text, Markdown or standalone HTML
+    Report(report::ReportArgs),
 }
 
 /// Run the parsed command, writing results to `out`.
@@ -84,5 +90,7 @@ pub fn run(cli: Cli, out: &mut dyn Write) -> Result<ExitCode, CliError> {
         Command::Sweep(a) => sweep::run(&a, out),
         Command::Center(a) => center::run(&a, out),
         Command::Shop(a) => shop::run(&a, out),
+        Command::Check(a) => check::run(&a, out),
+        Command::Report(a) => report::run(&a, out),
     }
 }

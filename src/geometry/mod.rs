@@ -5,6 +5,12 @@
 //! H = C·sin θ + (d_p − d_r)/2, with d_p the roll on the plate (pivot) and d_r the roll on the
 //! stack (raised).
 
+pub mod compound;
+pub mod taper;
+
+pub use compound::{CompoundSetting, compound, true_slope};
+pub use taper::{Taper, TaperError, TaperSpec};
+
 use crate::units::{Angle, Length, Unit};
 use thiserror::Error;
 

@@ -243,11 +243,10 @@ impl Length {
         }
     }
 
-    /// The shortest exact decimal in `unit` (no trailing zeros beyond `min_places`), or `None`
-    /// when the length is not an exact decimal in that unit (never happens for nm in mm or in).
+    /// The shortest decimal in `unit` (no trailing zeros beyond `min_places`). In millimetres
+    /// this is always exact (6 places hold a nanometre); in inches it is rounded to 9 places,
+    /// which is exact for every length on the 0.00001 in grid that inch blocks and readings use.
     pub fn exact_number(self, unit: Unit, min_places: usize) -> String {
-        // a nanometre is 1e-6 mm and 1/25 400 000 in; in inches every nm is an exact decimal
-        // with at most 9 places after rounding to 1e-9 in -- print up to 9, trim zeros.
         let max = match unit {
             Unit::Mm => 6,
             Unit::In => 9,

@@ -1,0 +1,112 @@
+//! Saving a file so that a crash or a full disk never leaves a half-written traveller: write a
+//! temporary file in the same folder, flush it to disk, keep the old file as `NAME.bak`, rename
+//! the new one over, and flush the folder (on Unix; elsewhere the rename is the last step).
+
+use std::fs::{self, File};
+use std::io::{self, Write};
+use std::path::{Path, PathBuf};
+
+/// `NAME.bak` beside `path`.
+pub fn backup_path(path: &Path) -> PathBuf {
+    sibling(path, ".bak")
+}
+
+/// `path` with `suffix` added to its file name.
+pub(crate) fn sibling(path: &Path, suffix: &str) -> PathBuf {
+    let mut name = path.file_name().map(|n| n.to_os_string()).unwrap_or_default();
+    name.push(suffix);
+    path.with_file_name(name)
+}
+
+pub(crate) fn folder_of(path: &Path) -> PathBuf {
+    match path.parent() {
+        Some(p) if !p.as_os_str().is_empty() => p.to_path_buf(),
+        _ => PathBuf::from("."),
+    }
+}
+
+/// Make the folder's entries (a rename, a new file) durable. Unix only; a no-op elsewhere.
+pub fn sync_folder(dir: &Path) -> io::Result<()> {
+    #[cfg(unix)]
+    {
+        File::open(dir)?.sync_all()
+    }
+    #[cfg(not(unix))]
+    {
+        let _ = dir;
+        Ok(())
+    }
+}
+
+/// Write `bytes` to `path` atomically, keeping the previous file (if any) as `NAME.bak`.
+///
+/// On any error the file at `path` is left as it was and the temporary file is removed.
+pub fn write_atomic(path: &Path, bytes: &[u8]) -> io::Result<()> {
+    let dir = folder_of(path);
+    let name = path
+        .file_name()
+        .map(|n| n.to_string_lossy().into_owned())
+        .unwrap_or_else(|| "traveller".into());
+    let mut tmp = tempfile::Builder::new()
+        .prefix(&format!(".{name}."))
+        .suffix(".tmp")
+        .tempfile_in(&dir)?;
+    tmp.write_all(bytes)?;
+    tmp.flush()?;
+    tmp.as_file().sync_all()?;
+    if path.is_dir() {
+        return Err(io::Error::other(format!(
+            "{} is a folder, not a file",
+            path.display()
+        )));
+    }
+    if path.exists() {
+        copy_durably(path, &backup_path(path), &dir)?;
+    }
+    tmp.persist(path).map_err(|e| e.error)?;
+    sync_folder(&dir)
+}
+
+/// Copy `from` to `to` through a temporary file, so `to` is always whole.
+fn copy_durably(from: &Path, to: &Path, dir: &Path) -> io::Result<()> {
+    let old = fs::read(from)?;
+    let mut tmp = tempfile::Builder::new()
+        .prefix(".bak.")
+        .suffix(".tmp")
+        .tempfile_in(dir)?;
+    tmp.write_all(&old)?;
+    tmp.as_file().sync_all()?;
+    tmp.persist(to).map_err(|e| e.error)?;
+    Ok(())
+}
+
+#[cfg(test)]
+mod tests {
+    use super::*;
+
+    #[test]
+    fn writes_and_keeps_a_backup() {
+        let dir = tempfile::tempdir().unwrap();
+        let p = dir.path().join("job.yaml");
+        write_atomic(&p, b"one").unwrap();
+        assert!(!backup_path(&p).exists());
+        write_atomic(&p, b"two").unwrap();
+        assert_eq!(fs::read(&p).unwrap(), b"two");
+        assert_eq!(fs::read(backup_path(&p)).unwrap(), b"one");
+        // no temporary files left behind
+        let names: Vec<_> = fs::read_dir(dir.path())
+            .unwrap()
+            .map(|e| e.unwrap().file_name().to_string_lossy().into_owned())
+            .collect();
+        assert_eq!(names.len(), 2, "{names:?}");
+    }
+
+    #[test]
+    fn a_failed_write_leaves_nothing_behind() {
+        let dir = tempfile::tempdir().unwrap();
+        let p = dir.path().join("job.yaml");
+        fs::create_dir(&p).unwrap();
+        assert!(write_atomic(&p, b"x").is_err());
+        assert_eq!(fs::read_dir(dir.path()).unwrap().count(), 1);
+    }
+}

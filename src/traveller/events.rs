@@ -1,0 +1,422 @@
+//! Helpers on the model: finding things, the setting angle of a feature, the flow of states,
+//! and appending to the event log for every confirmed action.
+
+use super::model::*;
+use crate::units::{Angle, Length};
+
+impl Traveller {
+    /// A new traveller for `job` with `features` and nothing done yet.
+    pub fn plan(job: Job, features: Vec<Feature>) -> Self {
+        Traveller {
+            schema: SCHEMA_VERSION,
+            job,
+            fixtures: Vec::new(),
+            block_sets: Vec::new(),
+            features,
+            notes: Vec::new(),
+            handovers: Vec::new(),
+            returns: Vec::new(),
+            signoffs: Vec::new(),
+            events: Vec::new(),
+        }
+    }
+    /// The feature with this id.
+    pub fn feature(&self, id: &str) -> Option<&Feature> {
+        self.features.iter().find(|f| f.id == id)
+    }
+    /// The feature with this id, to change it.
+    pub fn feature_mut(&mut self, id: &str) -> Option<&mut Feature> {
+        self.features.iter_mut().find(|f| f.id == id)
+    }
+    /// The snapshot of the fixture with this id.
+    pub fn fixture(&self, id: &str) -> Option<&FixtureSnapshot> {
+        self.fixtures.iter().find(|f| f.id == id)
+    }
+    /// The snapshot of the block set with this id.
+    pub fn block_set(&self, id: &str) -> Option<&BlockSetSnapshot> {
+        self.block_sets.iter().find(|s| s.id == id)
+    }
+    /// Add or replace a fixture snapshot (by id).
+    pub fn put_fixture(&mut self, snap: FixtureSnapshot) {
+        match self.fixtures.iter_mut().find(|f| f.id == snap.id) {
+            Some(f) => *f = snap,
+            None => self.fixtures.push(snap),
+        }
+    }
+    /// Add or replace a block-set snapshot (by id).
+    pub fn put_block_set(&mut self, snap: BlockSetSnapshot) {
+        match self.block_sets.iter_mut().find(|s| s.id == snap.id) {
+            Some(s) => *s = snap,
+            None => self.block_sets.push(snap),
+        }
+    }
+    /// Features finished (signed or recorded nonconforming) and the total.
+    pub fn progress(&self) -> (usize, usize) {
+        let done = self.features.iter().filter(|f| f.is_finished()).count();
+        (done, self.features.len())
+    }
+    /// The first feature not yet finished: where a reopened job lands.
+    pub fn next_feature(&self) -> Option<&Feature> {
+        self.features.iter().find(|f| !f.is_finished())
+    }
+    /// Handover notes `who` has not marked read.
+    pub fn unread_handovers(&self, who: &str) -> Vec<&Handover> {
+        self.handovers
+            .iter()
+            .filter(|h| !h.read_by.iter().any(|m| m.by == who))
+            .collect()
+    }
+
+    /// Append an event stamped now. The log is append-only and in time order: should the clock
+    /// have gone back since the last event, the last event's time is used.
+    pub fn log(
+        &mut self,
+        by: &str,
+        kind: EventKind,
+        feature: Option<&str>,
+        attempt: Option<u32>,
+        detail: impl Into<String>,
+    ) -> &Event {
+        self.log_at(Stamp::now(), by, kind, feature, attempt, detail)
+    }
+
+    /// Append an event with a given time (kept in order as [`Traveller::log`] does).
+    pub fn log_at(
+        &mut self,
+        at: Stamp,
+        by: &str,
+        kind: EventKind,
+        feature: Option<&str>,
+        attempt: Option<u32>,
+        detail: impl Into<String>,
+    ) -> &Event {
+        let at = match self.events.last() {
+            Some(last) if last.at > at => last.at,
+            _ => at,
+        };
+        let idx = self.events.len();
+        self.events.push(Event {
+            at,
+            by: by.to_string(),
+            kind,
+            feature: feature.map(str::to_string),
+            attempt,
+            detail: detail.into(),
+        });
+        &self.events[idx]
+    }
+
+    /// Add a note (and its event).
+    pub fn add_note(&mut self, by: &str, feature: Option<&str>, text: &str) {
+        let at = Stamp::now();
+        self.notes.push(Note {
+            text: text.to_string(),
+            feature: feature.map(str::to_string),
+            by: by.to_string(),
+            at,
+        });
+        self.log_at(at, by, EventKind::Note, feature, None, text);
+    }
+
+    /// Leave a handover note for the next shift (and its event).
+    pub fn add_handover(&mut self, by: &str, text: &str) {
+        let at = Stamp::now();
+        self.handovers.push(Handover {
+            text: text.to_string(),
+            by: by.to_string(),
+            at,
+            read_by: Vec::new(),
+        });
+        self.log_at(at, by, EventKind::Handover, None, None, text);
+    }
+
+    /// Mark every handover note read by `who` (and log it once).
+    pub fn mark_handovers_read(&mut self, who: &str) {
+        let at = Stamp::now();
+        let mut any = false;
+        for h in &mut self.handovers {
+            if !h.read_by.iter().any(|m| m.by == who) {
+                h.read_by.push(Mark {
+                    by: who.to_string(),
+                    at,
+                });
+                any = true;
+            }
+        }
+        if any {
+            self.log_at(at, who, EventKind::HandoverRead, None, None, "");
+        }
+    }
+
+    /// Send a feature (or the whole job) back with a comment; the feature becomes `returned`.
+    pub fn add_return(&mut self, by: &str, feature: Option<&str>, comment: &str) {
+        let at = Stamp::now();
+        self.returns.push(Return {
+            feature: feature.map(str::to_string),
+            comment: comment.to_string(),
+            by: by.to_string(),
+            at,
+        });
+        let ids: Vec<String> = match feature {
+            Some(id) => vec![id.to_string()],
+            None => self.features.iter().map(|f| f.id.clone()).collect(),
+        };
+        for f in self.features.iter_mut().filter(|f| ids.contains(&f.id)) {
+            f.state = FeatureState::Returned;
+        }
+        self.log_at(at, by, EventKind::Returned, feature, None, comment);
+    }
+}
+
+impl Feature {
+    /// A plain feature to plan by hand in code.
+    pub fn plain(id: &str, name: &str, nominal: Angle, tolerance: crate::units::Tolerance) -> Self {
+        Feature {
+            id: id.to_string(),
+            name: name.to_string(),
+            description: String::new(),
+            kind: FeatureKind::Plain,
+            nominal: Some(nominal),
+            tolerance,
+            taper: None,
+            compound: None,
+            work: WorkKind::SetupCheck,
+            state: FeatureState::Planned,
+            attempts: Vec::new(),
+        }
+    }
+
+    /// The angle the fixture is set to: the nominal; a taper's half angle; for a compound angle
+    /// the near plate's own view angle (see [`Compound::plate_angles`] for both plates).
+    pub fn setting_angle(&self) -> Option<Angle> {
+        match self.kind {
+            FeatureKind::Plain => self.nominal,
+            FeatureKind::Taper => self
+                .taper
+                .as_ref()
+                .and_then(|t| t.half_angle().ok())
+                .or(self.nominal),
+            FeatureKind::Compound => self.compound.as_ref().map(|c| c.plate_angles().0),
+        }
+    }
+    /// The attempt being worked on (the last one).
+    pub fn current_attempt(&self) -> Option<&Attempt> {
+        self.attempts.last()
+    }
+    /// The attempt being worked on, to change it.
+    pub fn current_attempt_mut(&mut self) -> Option<&mut Attempt> {
+        self.attempts.last_mut()
+    }
+    /// Start a new attempt numbered after the last one.
+    pub fn start_attempt(&mut self, by: &str, at: Stamp) -> &mut Attempt {
+        let number = self.attempts.last().map_or(1, |a| a.number + 1);
+        self.attempts.push(Attempt {
+            number,
+            started: Some(Mark {
+                by: by.to_string(),
+                at,
+            }),
+            ..Attempt::default()
+        });
+        let last = self.attempts.len() - 1;
+        &mut self.attempts[last]
+    }
+    /// The attempt a sign-off stands on: the last judged one.
+    pub fn accepted_attempt(&self) -> Option<&Attempt> {
+        self.attempts.iter().rev().find(|a| a.judgement.is_some())
+    }
+    /// Signed or recorded nonconforming.
+    pub fn is_finished(&self) -> bool {
+        matches!(
+            self.state,
+            FeatureState::Signed | FeatureState::Nonconforming
+        )
+    }
+}
+
+impl Taper {
+    /// The half angle (the setting angle on sine centres): atan(D / (2·len)).
+    pub fn half_angle(&self) -> Result<Angle, String> {
+        let given = [
+            self.ratio.is_some(),
+            self.per_foot.is_some(),
+            self.included.is_some(),
+            self.half.is_some(),
+        ]
+        .iter()
+        .filter(|b| **b)
+        .count();
+        if given != 1 {
+            return Err(format!(
+                "give exactly one of ratio, per_foot, included or half (found {given}), e.g. `taper: {{ ratio: \"1:20\" }}`"
+            ));
+        }
+        if let Some(r) = &self.ratio {
+            let k = parse_ratio(r)?;
+            return Ok(Angle::from_rad((1.0 / (2.0 * k)).atan()));
+        }
+        if let Some(d) = self.per_foot {
+            if d.nm() <= 0 {
+                return Err("per_foot must be more than zero, e.g. \"0.6250 in\"".into());
+            }
+            let foot = Length::from_nm(12 * crate::units::NM_PER_INCH);
+            return Ok(Angle::from_rad(
+                (d.nm() as f64 / (2.0 * foot.nm() as f64)).atan(),
+            ));
+        }
+        if let Some(a) = self.included {
+            return Ok(Angle::from_deg(a.deg() / 2.0));
+        }
+        self.half.ok_or_else(|| "no taper given".to_string())
+    }
+}
+
+/// Parse a taper ratio `1:k` (diameter change 1 over length k); returns k.
+pub fn parse_ratio(text: &str) -> Result<f64, String> {
+    let bad = || format!("taper ratio '{text}' is not of the form 1:k; write it like \"1:20\"");
+    let (a, b) = text.split_once(':').ok_or_else(bad)?;
+    let a: f64 = a.trim().parse().map_err(|_| bad())?;
+    let b: f64 = b.trim().parse().map_err(|_| bad())?;
+    if !(a.is_finite() && b.is_finite()) || a <= 0.0 || b <= 0.0 {
+        return Err(bad());
+    }
+    Ok(b / a)
+}
+
+impl Compound {
+    /// (near plate, far plate) setting angles: the near plate is set to its own view angle,
+    /// the far one to atan(tan(far view) · cos(near view)).
+    pub fn plate_angles(&self) -> (Angle, Angle) {
+        let (near, far) = match self.near {
+            NearPlate::A => (self.a, self.b),
+            NearPlate::B => (self.b, self.a),
+        };
+        let far_set = Angle::from_rad((far.rad().tan() * near.rad().cos()).atan());
+        (near, far_set)
+    }
+    /// True slope of the plane: atan(√(tan²A + tan²B)).
+    pub fn true_slope(&self) -> Angle {
+        let (ta, tb) = (self.a.rad().tan(), self.b.rad().tan());
+        Angle::from_rad((ta * ta + tb * tb).sqrt().atan())
+    }
+}
+
+impl FeatureState {
+    /// Can a feature go from `prev` to `self`?
+    pub fn can_follow(self, prev: FeatureState) -> bool {
+        use FeatureState::*;
+        if self == prev {
+            return true;
+        }
+        match prev {
+            Planned => matches!(self, FixtureChosen),
+            FixtureChosen => matches!(self, SetChosen),
+            SetChosen => matches!(self, StackBuilt | FixtureChosen),
+            StackBuilt => matches!(self, Settled | Sweeping | FixtureChosen | SetChosen),
+            Settled => matches!(self, Sweeping | StackBuilt | FixtureChosen | SetChosen),
+            Sweeping => matches!(self, Judged | StackBuilt | FixtureChosen | SetChosen),
+            Judged => matches!(
+                self,
+                Signed | Nonconforming | FixtureChosen | SetChosen | StackBuilt
+            ),
+            Nonconforming => matches!(self, Signed | Returned),
+            Signed => matches!(self, Returned),
+            Returned => !matches!(self, Planned),
+        }
+    }
+    /// The state an event moves a feature to, if it moves it.
+    pub fn after_event(kind: EventKind) -> Option<FeatureState> {
+        use FeatureState::*;
+        Some(match kind {
+            EventKind::FixtureChosen => FixtureChosen,
+            EventKind::SetChosen => SetChosen,
+            EventKind::StackBuilt | EventKind::BlockSwapped => StackBuilt,
+            EventKind::Settled | EventKind::SettleSkipped => Settled,
+            EventKind::ReadingEntered | EventKind::ReadingRemoved => Sweeping,
+            EventKind::AttemptJudged | EventKind::DoubtDecided => Judged,
+            EventKind::Nonconforming => Nonconforming,
+            EventKind::Signed => Signed,
+            EventKind::Returned => Returned,
+            _ => return None,
+        })
+    }
+    /// Plain words for screens and reports.
+    pub fn label(self) -> &'static str {
+        use FeatureState::*;
+        match self {
+            Planned => "planned",
+            FixtureChosen => "fixture chosen",
+            SetChosen => "block set chosen",
+            StackBuilt => "stack built",
+            Settled => "settled",
+            Sweeping => "sweeping",
+            Judged => "judged",
+            Nonconforming => "nonconforming",
+            Signed => "signed",
+            Returned => "returned",
+        }
+    }
+}
+
+impl Verdict {
+    /// The word printed for the verdict.
+    pub fn label(self) -> &'static str {
+        match self {
+            Verdict::Pass => "PASS",
+            Verdict::Fail => "FAIL",
+            Verdict::Doubt => "DOUBT",
+        }
+    }
+}
+
+impl Judgement {
+    /// The verdict that stands: the lead's decision on a doubt, else the computed one.
+    pub fn final_verdict(&self) -> Verdict {
+        self.doubt_decision
+            .as_ref()
+            .map_or(self.verdict, |d| d.verdict)
+    }
+}
+
+#[cfg(test)]
+mod tests {
+    use super::*;
+
+    #[test]
+    fn taper_half_angles() {
+        // 1:20 on the diameter: half angle atan(1/40) = 1.432096° (direct computation)
+        let t = Taper {
+            ratio: Some("1:20".into()),
+            ..Taper::default()
+        };
+        let h = t.half_angle().unwrap();
+        assert!((h.deg() - (1.0f64 / 40.0).atan().to_degrees()).abs() < 1e-12);
+        assert!((h.deg() - 1.432_096).abs() < 1e-6, "{}", h.deg());
+        let two = Taper {
+            ratio: Some("1:20".into()),
+            half: Some(Angle::from_deg(1.0)),
+            ..Taper::default()
+        };
+        assert!(two.half_angle().is_err());
+        assert!(parse_ratio("20").is_err());
+    }
+
+    #[test]
+    fn states_follow_the_flow() {
+        use FeatureState::*;
+        assert!(FixtureChosen.can_follow(Planned));
+        assert!(!Signed.can_follow(Planned));
+        assert!(!Judged.can_follow(SetChosen));
+        assert!(StackBuilt.can_follow(Judged));
+        assert!(Returned.can_follow(Signed));
+    }
+
+    #[test]
+    fn log_keeps_time_order() {
+        let mut t = Traveller::plan(Job::default(), Vec::new());
+        let later = Stamp::parse("2999-01-01T00:00:00Z").unwrap();
+        t.log_at(later, "AB", EventKind::Opened, None, None, "");
+        t.log("AB", EventKind::Note, None, None, "x");
+        assert!(t.events[1].at >= t.events[0].at);
+    }
+}

@@ -1,0 +1,16 @@
+//! The job record: model, versioned YAML schema, validation, audit events, sign-off digest,
+//! reports.
+
+pub mod digest;
+pub mod events;
+pub mod locate;
+pub mod model;
+pub mod report;
+pub mod schema;
+mod stamp;
+pub mod validate;
+
+pub use model::*;
+pub use schema::{LoadError, Loaded, parse, to_yaml};
+pub use stamp::StampError;
+pub use validate::{Problem, check_text, validate};

@@ -1,0 +1,441 @@
+//! Reports of a traveller for a lead or a customer file: the job and its progress, then each
+//! feature with its setup, result, who and when, and flags worth a second look. Written as
+//! plain text, Markdown, or one standalone HTML file that prints on A4 and Letter.
+
+mod doc;
+mod html;
+
+pub use doc::{Block, Doc};
+
+use super::digest::{self, Change};
+use super::model::*;
+use crate::units::{Angle, Length, Unit};
+use serde::Serialize;
+use std::str::FromStr;
+
+/// Output format of a report.
+#[derive(Debug, Clone, Copy, PartialEq, Eq, Default)]
+pub enum Format {
+    #[default]
+    Text,
+    Markdown,
+    Html,
+}
+
+impl FromStr for Format {
+    type Err = String;
+    fn from_str(s: &str) -> Result<Self, String> {
+        match s.trim().to_ascii_lowercase().as_str() {
+            "text" | "txt" => Ok(Format::Text),
+            "markdown" | "md" => Ok(Format::Markdown),
+            "html" | "htm" => Ok(Format::Html),
+            other => Err(format!(
+                "'{other}' is not a report format; use text, markdown or html"
+            )),
+        }
+    }
+}
+
+/// Straightness taken as large when, as an angle over the travel, it passes this share of
+/// the tightest tolerance side (common practice (no source)).
+pub const STRAIGHTNESS_SHARE: f64 = 0.25;
+
+/// Something about a feature worth a second look.
+#[derive(Debug, Clone, PartialEq, Eq)]
+pub enum Flag {
+    /// A stack block was changed by hand from the solver's choice.
+    SwappedByHand,
+    /// The fixture or block set was past its calibration due date when used.
+    CalibrationOutOfDate(String),
+    /// The verdict is inside the doubt band.
+    DoubtBand,
+    /// The surface is not straight against the tolerance.
+    LargeStraightness,
+    /// Signed values changed after the sign-off (field names).
+    ChangedAfterSignOff(Vec<String>),
+}
+
+impl Flag {
+    /// Plain words for the flag.
+    pub fn describe(&self) -> String {
+        match self {
+            Flag::SwappedByHand => "stack swapped by hand".into(),
+            Flag::CalibrationOutOfDate(w) => format!("calibration out of date: {w}"),
+            Flag::DoubtBand => "inside the doubt band".into(),
+            Flag::LargeStraightness => "large straightness against the tolerance".into(),
+            Flag::ChangedAfterSignOff(f) => format!("changed after sign-off: {}", f.join(", ")),
+        }
+    }
+}
+
+/// The flags of one feature.
+pub fn flags(t: &Traveller, f: &Feature) -> Vec<Flag> {
+    let mut out = Vec::new();
+    if f
+        .attempts
+        .iter()
+        .any(|a| a.stack.iter().chain(a.stack_b.iter()).any(Stack::swapped_by_hand))
+    {
+        out.push(Flag::SwappedByHand);
+    }
+    let mut late: Vec<String> = Vec::new();
+    for a in &f.attempts {
+        if let Some(c) = &a.fixture
+            && let Some(due) = t.fixture(&c.id).and_then(|x| x.due)
+            && c.at.date() > due
+        {
+            late.push(format!("fixture {} (due {due})", c.id));
+        }
+        if let Some(c) = &a.block_set
+            && let Some(due) = t.block_set(&c.id).and_then(|x| x.due)
+            && c.at.date() > due
+        {
+            late.push(format!("block set {} (due {due})", c.id));
+        }
+    }
+    late.dedup();
+    if !late.is_empty() {
+        out.push(Flag::CalibrationOutOfDate(late.join(", ")));
+    }
+    if let Some(a) = f.accepted_attempt()
+        && let Some(j) = &a.judgement
+    {
+        if j.verdict == Verdict::Doubt {
+            out.push(Flag::DoubtBand);
+        }
+        if let Some(travel) = a.sweep.as_ref().and_then(sweep_travel)
+            && travel.nm() > 0
+        {
+            let ang = Angle::from_rad((j.fit.straightness.nm() as f64 / travel.nm() as f64).atan());
+            if ang.arcsec() > STRAIGHTNESS_SHARE * f.tolerance.tightest().arcsec() {
+                out.push(Flag::LargeStraightness);
+            }
+        }
+    }
+    let changed = changed_fields(t, f);
+    if !changed.is_empty() {
+        out.push(Flag::ChangedAfterSignOff(changed));
+    }
+    out
+}
+
+/// The fields of `f` changed since any sign-off covering it.
+pub fn changed_fields(t: &Traveller, f: &Feature) -> Vec<String> {
+    let mut out: Vec<String> = Vec::new();
+    for s in &t.signoffs {
+        let prefix = match s.scope {
+            Scope::Feature if s.feature.as_deref() == Some(f.id.as_str()) => String::new(),
+            Scope::Job => format!("{}.", f.id),
+            _ => continue,
+        };
+        for c in digest::verify(t, s) {
+            let name = match c {
+                Change::Field(n) | Change::Added(n) => n,
+                Change::DigestEdited | Change::Unnamed => "sign-off record".into(),
+                Change::FeatureGone(_) => continue,
+            };
+            let name = if prefix.is_empty() {
+                name
+            } else if let Some(n) = name.strip_prefix(&prefix) {
+                n.to_string()
+            } else if name == "sign-off record" {
+                name
+            } else {
+                continue;
+            };
+            if !out.contains(&name) {
+                out.push(name);
+            }
+        }
+    }
+    out
+}
+
+/// The length of a sweep's travel (spaced: as given; pairs: first to last position).
+pub fn sweep_travel(s: &Sweep) -> Option<Length> {
+    match s.mode {
+        SweepMode::Spaced => s.travel,
+        SweepMode::Pairs => {
+            let min = s.pairs.iter().map(|p| p.position).min()?;
+            let max = s.pairs.iter().map(|p| p.position).max()?;
+            Some(max - min)
+        }
+    }
+}
+
+fn written<T: Serialize>(v: &T) -> String {
+    serde_json::to_value(v)
+        .ok()
+        .and_then(|v| v.as_str().map(str::to_string))
+        .unwrap_or_default()
+}
+
+fn len(l: Length, u: Unit) -> String {
+    l.show(u)
+}
+
+fn kind_text(f: &Feature) -> String {
+    match f.kind {
+        FeatureKind::Plain => "plain angle".into(),
+        FeatureKind::Taper => {
+            let given = f.taper.as_ref().map_or(String::new(), |t| {
+                if let Some(r) = &t.ratio {
+                    format!(" {r}")
+                } else if let Some(p) = t.per_foot {
+                    format!(" {} per foot", p.show(Unit::In))
+                } else if let Some(i) = t.included {
+                    format!(" included {}", i.dms(0))
+                } else if let Some(h) = t.half {
+                    format!(" half angle {}", h.dms(0))
+                } else {
+                    String::new()
+                }
+            });
+            format!("taper{given}")
+        }
+        FeatureKind::Compound => f.compound.as_ref().map_or("compound".into(), |c| {
+            let (n, far) = c.plate_angles();
+            format!(
+                "compound A {} B {} (plates {} and {}, true slope {})",
+                c.a.dms(0),
+                c.b.dms(0),
+                n.dms(0),
+                far.dms(1),
+                c.true_slope().dms(1)
+            )
+        }),
+    }
+}
+
+fn stack_text(s: &Stack, u: Unit) -> String {
+    let blocks: Vec<String> = s
+        .blocks
+        .iter()
+        .map(|b| {
+            let n = b.size.number(u, u.places());
+            if b.protector { format!("{n}(p)") } else { n }
+        })
+        .collect();
+    format!("{} = {}", blocks.join(" + "), len(s.height, u))
+}
+
+fn who_when(by: &str, at: &Stamp) -> String {
+    format!("{by}, {}", at.short())
+}
+
+/// Build the report as a format-neutral document.
+pub fn document(t: &Traveller) -> Doc {
+    let u = t.job.unit;
+    let mut d = Doc::default();
+    let j = &t.job;
+    d.push(Block::Title(format!("Traveller {} — {}", j.id, j.part)));
+    let (done, total) = t.progress();
+    let mut fields = vec![("Job".to_string(), j.id.clone()), ("Part".into(), j.part.clone())];
+    if !j.drawing.is_empty() {
+        let rev = if j.revision.is_empty() { String::new() } else { format!(" rev {}", j.revision) };
+        fields.push(("Drawing".into(), format!("{}{rev}", j.drawing)));
+    }
+    if !j.material.is_empty() {
+        fields.push(("Material".into(), j.material.clone()));
+    }
+    fields.push(("Quantity".into(), j.quantity.to_string()));
+    fields.push(("Units".into(), u.symbol().to_string()));
+    fields.push(("Progress".into(), format!("{done} of {total} features finished")));
+    let flagged = t.features.iter().filter(|f| !flags(t, f).is_empty()).count();
+    fields.push(("Flagged".into(), format!("{flagged} feature(s)")));
+    if !j.notes.is_empty() {
+        fields.push(("Notes".into(), j.notes.clone()));
+    }
+    d.push(Block::Fields(fields));
+
+    d.push(Block::Heading("Features".into()));
+    let rows = t
+        .features
+        .iter()
+        .map(|f| {
+            let v = f
+                .accepted_attempt()
+                .and_then(|a| a.judgement.as_ref())
+                .map_or("—".to_string(), |j| j.final_verdict().label().to_string());
+            vec![
+                f.id.clone(),
+                f.name.clone(),
+                f.setting_angle().map_or("—".into(), |a| a.dms(0)),
+                f.tolerance.to_string(),
+                f.state.label().to_string(),
+                v,
+                f.attempts.len().to_string(),
+                flags(t, f).len().to_string(),
+            ]
+        })
+        .collect();
+    d.push(Block::Table {
+        head: ["Id", "Feature", "Setting", "Tolerance", "State", "Verdict", "Attempts", "Flags"]
+            .map(String::from)
+            .to_vec(),
+        rows,
+    });
+
+    for f in &t.features {
+        feature_section(t, f, u, &mut d);
+    }
+    equipment(t, u, &mut d);
+    records(t, &mut d);
+    d
+}
+
+fn feature_section(t: &Traveller, f: &Feature, u: Unit, d: &mut Doc) {
+    d.push(Block::Heading(format!("{} — {}", f.id, f.name)));
+    let mut rows: Vec<(String, String)> = Vec::new();
+    if !f.description.is_empty() {
+        rows.push(("Description".into(), f.description.clone()));
+    }
+    rows.push(("Kind".into(), format!("{}; {}", kind_text(f), written(&f.work).replace('_', " "))));
+    rows.push(("Nominal".into(), f.setting_angle().map_or("—".into(), |a| format!("{} ({})", a.dms(1), a.decimal(4)))));
+    rows.push(("Tolerance".into(), f.tolerance.to_string()));
+    rows.push(("State".into(), f.state.label().into()));
+    rows.push(("Attempts".into(), f.attempts.len().to_string()));
+    let a = f.accepted_attempt().or(f.current_attempt());
+    if let Some(a) = a {
+        rows.push(("Attempt shown".into(), a.number.to_string()));
+        if let Some(c) = &a.fixture {
+            let fx = t.fixture(&c.id).map_or(String::new(), |x| format!(" (C = {})", x.centre.show_fine(u)));
+            rows.push(("Fixture".into(), format!("{}{fx}", c.id)));
+        }
+        if let Some(c) = &a.block_set {
+            let g = t.block_set(&c.id).map_or(String::new(), |x| format!(" (grade {})", x.grade));
+            rows.push(("Block set".into(), format!("{}{g}", c.id)));
+        }
+        if let Some(s) = &a.stack {
+            rows.push(("Stack".into(), stack_text(s, u)));
+            rows.push(("Achieved angle".into(), format!("{} ({})", s.achieved.dms(1), s.achieved.decimal(4))));
+        }
+        if let Some(s) = &a.stack_b {
+            rows.push(("Second stack".into(), format!("{} → {}", stack_text(s, u), s.achieved.dms(1))));
+        }
+        if let Some(j) = &a.judgement {
+            rows.push(("Residual".into(), j.residual.arcsec_signed(1)));
+            rows.push(("Deviation".into(), j.deviation.arcsec_signed(1)));
+            rows.push(("U (k = 2)".into(), format!("{:.1}\"", j.u.arcsec())));
+            rows.push(("Straightness".into(), j.fit.straightness.show_fine(u)));
+            let rule = written(&j.rule);
+            rows.push(("Verdict".into(), format!("{} ({rule} rule)", j.verdict.label())));
+            if let Some(dd) = &j.doubt_decision {
+                rows.push(("Lead's decision".into(), format!("{} — {} ({})", dd.verdict.label(), dd.reason, who_when(&dd.by, &dd.at))));
+            }
+            rows.push(("Judged by".into(), who_when(&j.by, &j.at)));
+        }
+        if !a.note.is_empty() {
+            rows.push(("Note".into(), a.note.clone()));
+        }
+    }
+    for s in t.signoffs.iter().filter(|s| s.feature.as_deref() == Some(f.id.as_str())) {
+        rows.push(("Signed".into(), format!("{} ({})", who_when(&s.by, &s.at), written(&s.role))));
+    }
+    let fl = flags(t, f);
+    rows.push(("Flags".into(), if fl.is_empty() { "none".into() } else { fl.iter().map(Flag::describe).collect::<Vec<_>>().join("; ") }));
+    d.push(Block::Fields(rows));
+    if f.attempts.len() > 1 {
+        let rows = f
+            .attempts
+            .iter()
+            .map(|a| {
+                let j = a.judgement.as_ref();
+                vec![
+                    a.number.to_string(),
+                    a.stack.as_ref().map_or("—".into(), |s| len(s.height, u)),
+                    j.map_or("—".into(), |j| j.deviation.arcsec_signed(1)),
+                    j.map_or("—".into(), |j| j.verdict.label().to_string()),
+                    j.and_then(|j| j.correction.as_ref()).map_or("—".into(), |c| format!("{} → {}", c.delta.show_fine(u), len(c.height, u))),
+                    a.note.clone(),
+                ]
+            })
+            .collect();
+        d.push(Block::Table {
+            head: ["Attempt", "Stack", "Deviation", "Verdict", "Correction", "Note"].map(String::from).to_vec(),
+            rows,
+        });
+    }
+}
+
+fn equipment(t: &Traveller, u: Unit, d: &mut Doc) {
+    if t.fixtures.is_empty() && t.block_sets.is_empty() {
+        return;
+    }
+    d.push(Block::Heading("Equipment".into()));
+    let mut rows: Vec<Vec<String>> = t
+        .fixtures
+        .iter()
+        .map(|f| {
+            vec![
+                f.id.clone(),
+                written(&f.kind).replace('_', " "),
+                format!("C = {}", f.centre.show_fine(u)),
+                f.due.map_or("—".into(), |d| d.to_string()),
+            ]
+        })
+        .collect();
+    rows.extend(t.block_sets.iter().map(|s| {
+        let mut w = format!("grade {}", s.grade);
+        if !s.missing.is_empty() {
+            w.push_str(&format!(", {} missing", s.missing.len()));
+        }
+        if !s.worn.is_empty() {
+            w.push_str(&format!(", {} worn", s.worn.len()));
+        }
+        vec![s.id.clone(), "block set".into(), w, s.due.map_or("—".into(), |d| d.to_string())]
+    }));
+    d.push(Block::Table {
+        head: ["Id", "Kind", "Values", "Calibration due"].map(String::from).to_vec(),
+        rows,
+    });
+}
+
+fn records(t: &Traveller, d: &mut Doc) {
+    if !t.handovers.is_empty() {
+        d.push(Block::Heading("Handover notes".into()));
+        d.push(Block::List(t.handovers.iter().map(|h| {
+            let read: Vec<String> = h.read_by.iter().map(|m| m.by.clone()).collect();
+            let read = if read.is_empty() { "not yet read".into() } else { format!("read by {}", read.join(", ")) };
+            format!("{} — {} ({read})", who_when(&h.by, &h.at), h.text)
+        }).collect()));
+    }
+    if !t.notes.is_empty() {
+        d.push(Block::Heading("Notes".into()));
+        d.push(Block::List(t.notes.iter().map(|n| {
+            let on = n.feature.as_ref().map_or(String::new(), |f| format!("[{f}] "));
+            format!("{on}{} — {}", who_when(&n.by, &n.at), n.text)
+        }).collect()));
+    }
+    if !t.returns.is_empty() {
+        d.push(Block::Heading("Returned by the lead".into()));
+        d.push(Block::List(t.returns.iter().map(|r| {
+            let on = r.feature.as_ref().map_or("job".to_string(), |f| f.clone());
+            format!("{on}: {} — {}", who_when(&r.by, &r.at), r.comment)
+        }).collect()));
+    }
+    if !t.signoffs.is_empty() {
+        d.push(Block::Heading("Sign-offs".into()));
+        d.push(Block::Table {
+            head: ["Scope", "By", "Role", "When", "Digest"].map(String::from).to_vec(),
+            rows: t.signoffs.iter().map(|s| vec![
+                s.feature.clone().unwrap_or_else(|| "job".into()),
+                s.by.clone(),
+                written(&s.role),
+                s.at.short(),
+                s.digest.chars().take(16).collect(),
+            ]).collect(),
+        });
+    }
+    d.push(Block::Para(format!("{} events in the log.", t.events.len())));
+}
+
+/// Render the report in `format`.
+pub fn render(t: &Traveller, format: Format) -> String {
+    let d = document(t);
+    match format {
+        Format::Text => d.text(),
+        Format::Markdown => d.markdown(),
+        Format::Html => html::page(&d, &format!("Traveller {} — {}", t.job.id, t.job.part)),
+    }
+}

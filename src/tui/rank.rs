@@ -1,0 +1,229 @@
+//! The shop's fixtures ranked for one angle: can it be set, the error the set's rounding leaves,
+//! an estimate of U, warnings, and whether its calibration is out of date.
+
+use super::shop_view::{SetView, ShopView};
+use crate::geometry::{SineFixture, plan};
+use crate::traveller::{BlockSetSnapshot, FixtureSnapshot};
+use crate::uncertainty::{Contribution, DEFAULT_JOINT_NM, Grade, Setup, budget};
+use crate::units::{Angle, Length, Unit};
+use jiff::civil::Date;
+
+/// The geometry of a fixture snapshot.
+pub fn geometry(f: &FixtureSnapshot) -> SineFixture {
+    SineFixture {
+        center: f.centre,
+        pivot_roll: f.roll_pivot,
+        raised_roll: f.roll_stack,
+    }
+}
+
+/// Is a calibration due date past?
+pub fn out_of_date(due: Option<Date>, today: Date) -> bool {
+    due.is_some_and(|d| d < today)
+}
+
+/// One fixture as offered for an angle.
+#[derive(Debug, Clone, PartialEq)]
+pub struct FixtureOption {
+    /// Index into the shop's fixtures.
+    pub index: usize,
+    pub reachable: bool,
+    /// Why it cannot be used for this angle.
+    pub why_not: Option<String>,
+    /// The stack height, rounded to the step.
+    pub height: Option<Length>,
+    /// Achieved − setting, from rounding the stack.
+    pub error: Option<Angle>,
+    /// Expanded uncertainty estimate from the centre distance and a grade-0 stack.
+    pub u: Option<Angle>,
+    pub warnings: Vec<String>,
+    pub out_of_date: bool,
+}
+
+/// Rank the shop's fixtures for `setting`, heights rounded to `step`: reachable first, then in
+/// date, then the smallest |error| + U.
+pub fn rank_fixtures(
+    shop: &ShopView,
+    setting: Angle,
+    step: Length,
+    unit: Unit,
+    today: Date,
+) -> Vec<FixtureOption> {
+    let mut v: Vec<FixtureOption> = shop
+        .fixtures
+        .iter()
+        .enumerate()
+        .map(|(index, f)| offer(index, f, setting, step, unit, today))
+        .collect();
+    let score = |o: &FixtureOption| {
+        o.error.map_or(f64::MAX, |e| e.arcsec().abs()) + o.u.map_or(0.0, |u| u.arcsec())
+    };
+    v.sort_by(|a, b| {
+        (!a.reachable, a.out_of_date)
+            .cmp(&(!b.reachable, b.out_of_date))
+            .then(score(a).total_cmp(&score(b)))
+    });
+    v
+}
+
+fn offer(
+    index: usize,
+    f: &FixtureSnapshot,
+    setting: Angle,
+    step: Length,
+    unit: Unit,
+    today: Date,
+) -> FixtureOption {
+    let geo = geometry(f);
+    let stale = out_of_date(f.due, today);
+    let mut o = FixtureOption {
+        index,
+        reachable: false,
+        why_not: None,
+        height: None,
+        error: None,
+        u: None,
+        warnings: Vec::new(),
+        out_of_date: stale,
+    };
+    if stale && let Some(d) = f.due {
+        o.warnings
+            .push(format!("calibration was due {d}: using it needs a reason"));
+    }
+    if let Some(max) = f.max_angle
+        && setting.deg() > max.deg() + 1e-9
+    {
+        o.why_not = Some(format!("rated only to {}", max.dm()));
+        return o;
+    }
+    match plan(&geo, setting, step, f.max_stack, unit) {
+        Err(e) => o.why_not = Some(e.to_string()),
+        Ok(adv) => {
+            let too_tall = f.max_stack.is_some_and(|m| adv.direct.height > m);
+            if too_tall {
+                o.why_not = Some(format!(
+                    "needs a {} stack; it takes {} at most",
+                    adv.direct.height.show(unit),
+                    f.max_stack.unwrap_or_default().show(unit)
+                ));
+            } else {
+                o.reachable = true;
+            }
+            o.height = Some(adv.direct.height);
+            o.error = Some(adv.direct.error);
+            o.u = estimate_u(&geo, setting, f.centre_u, adv.direct.height);
+            for w in adv.warnings {
+                if !w.contains("taller than this fixture") {
+                    o.warnings.push(w);
+                }
+            }
+        }
+    }
+    o
+}
+
+fn estimate_u(geo: &SineFixture, setting: Angle, centre_u: Option<Length>, h: Length) -> Option<Angle> {
+    let mut c = vec![Contribution::Stack {
+        blocks: vec![h],
+        grade: Grade::Zero,
+        per_joint_nm: DEFAULT_JOINT_NM,
+    }];
+    if let Some(u) = centre_u {
+        c.push(Contribution::CenterCalibration { u });
+    }
+    budget(
+        &Setup {
+            fixture: *geo,
+            angle: setting,
+        },
+        &c,
+    )
+    .ok()
+    .map(|b| b.expanded)
+}
+
+/// One block set as offered.
+#[derive(Debug, Clone, PartialEq)]
+pub struct SetOption {
+    pub index: usize,
+    pub out_of_date: bool,
+}
+
+/// The shop's sets in their order, with their calibration state.
+pub fn list_sets(shop: &ShopView, today: Date) -> Vec<SetOption> {
+    shop.sets
+        .iter()
+        .enumerate()
+        .map(|(index, s)| SetOption {
+            index,
+            out_of_date: out_of_date(s.snap.due, today),
+        })
+        .collect()
+}
+
+/// A short list of block sizes: `0.1007, 0.1300 in`.
+pub fn sizes_text(sizes: &[Length], unit: Unit) -> String {
+    if sizes.is_empty() {
+        return "none".into();
+    }
+    let v: Vec<String> = sizes.iter().map(|s| s.number(unit, unit.places())).collect();
+    format!("{} {}", v.join(", "), unit.symbol())
+}
+
+/// The grade of a set snapshot as the budget knows it (grade 0 when it cannot be read).
+pub fn grade_of(snap: &BlockSetSnapshot) -> Option<Grade> {
+    let g = snap.grade.trim();
+    let g = g
+        .strip_prefix("ISO ")
+        .or_else(|| g.strip_prefix("ASME "))
+        .unwrap_or(g);
+    g.parse::<Grade>().ok()
+}
+
+/// The set of a snapshot id in the shop, for the solver.
+pub fn set_for<'a>(shop: &'a ShopView, id: &str) -> Option<&'a SetView> {
+    shop.set(id)
+}
+
+#[cfg(test)]
+mod tests {
+    use super::*;
+    use crate::tui::shop_view::demo_shop;
+
+    #[test]
+    fn out_of_date_fixture_goes_last_but_stays_offered() {
+        let today = jiff::civil::date(2025, 3, 4);
+        let shop = demo_shop(today);
+        let r = rank_fixtures(
+            &shop,
+            Angle::from_deg(30.0),
+            Length::inches(0.0001),
+            Unit::In,
+            today,
+        );
+        assert_eq!(r.len(), 3);
+        assert!(r[0].reachable && !r[0].out_of_date);
+        let stale = r.iter().find(|o| o.out_of_date).unwrap();
+        assert!(stale.warnings.iter().any(|w| w.contains("needs a reason")));
+        assert!(r.last().unwrap().out_of_date);
+        // 5 in bar at 30°: H = 2.5 in (sin 30° = 1/2), so the rounding error is tiny
+        let first = &shop.fixtures[r[0].index];
+        assert!(first.id == "SB-5" || first.id == "SB-100", "{}", first.id);
+    }
+
+    #[test]
+    fn an_angle_above_the_rating_is_not_reachable() {
+        let today = jiff::civil::date(2025, 3, 4);
+        let shop = demo_shop(today);
+        let r = rank_fixtures(
+            &shop,
+            Angle::from_deg(70.0),
+            Length::inches(0.0001),
+            Unit::In,
+            today,
+        );
+        let bar = r.iter().find(|o| shop.fixtures[o.index].id == "SB-5").unwrap();
+        assert!(!bar.reachable);
+        assert!(bar.why_not.as_deref().unwrap_or("").contains("rated only"));
+    }
+}

@@ -1,0 +1,138 @@
+//! The setup: the cautions with the shop's rules, the settle wait, and the side view to scale.
+
+use super::super::app::App;
+use super::super::flow_build::setting;
+use super::super::view::boxed;
+use super::super::widgets::setup_view::{self, SetupScene};
+use ratatui::Frame;
+use ratatui::layout::{Constraint, Layout, Rect};
+use ratatui::text::{Line, Span};
+use ratatui::widgets::{Gauge, Paragraph, Wrap};
+
+/// The usual cautions where a setup is made (common practice, no source).
+pub const CAUTIONS: [&str; 5] = [
+    "Clamp the work against the fixture's stop before any cut or reading.",
+    "Never cut on an unsecured stack: the fixture and stack are clamped too.",
+    "Wear eye protection.",
+    "Handle blocks with gloves or a cloth; wring clean, take the stack apart after the job.",
+    "The shop's own rules and local codes come first.",
+];
+
+fn split(area: Rect) -> (Rect, Rect) {
+    let left = if area.width >= 120 { 56 } else { 40 };
+    let [a, b] = Layout::horizontal([Constraint::Length(left), Constraint::Min(20)]).areas(area);
+    (a, b)
+}
+
+/// The side view for the attempt: the built stack when there is one.
+pub fn draw_view(f: &mut Frame, area: Rect, app: &App) {
+    let t = app.theme;
+    let a = app.attempt();
+    let fx = a
+        .and_then(|a| a.fixture.as_ref())
+        .and_then(|c| app.doc.fixture(&c.id));
+    let Some(fx) = fx else {
+        f.render_widget(
+            Paragraph::new("no fixture chosen").block(boxed("Side view", t)),
+            area,
+        );
+        return;
+    };
+    let (angle, blocks) = match a.and_then(|a| a.stack.as_ref()) {
+        Some(s) => (s.achieved, s.blocks.iter().map(|b| b.size).collect::<Vec<_>>()),
+        None => (setting(app).unwrap_or_default(), Vec::new()),
+    };
+    let scene = SetupScene::new(fx, angle, &blocks, app.unit());
+    setup_view::draw(f, area, &scene, boxed("Side view, to scale", t), t);
+}
+
+pub fn draw_safety(f: &mut Frame, area: Rect, app: &App) {
+    let t = app.theme;
+    let (left, right) = split(area);
+    let mut lines = Vec::new();
+    for (i, c) in CAUTIONS.iter().enumerate() {
+        lines.push(Line::from(vec![
+            Span::styled(format!("{}. ", i + 1), t.warn()),
+            Span::raw(*c),
+        ]));
+    }
+    for r in &app.shop.settings.rules {
+        lines.push(Line::from(vec![Span::styled("Shop: ", t.warn()), Span::raw(r.clone())]));
+    }
+    if let Some(m) = app.attempt().and_then(|a| a.safety.as_ref()) {
+        lines.push(Line::raw(""));
+        lines.push(Line::styled(format!("✓ confirmed by {} {}", m.by, m.at.short()), t.good()));
+    }
+    f.render_widget(
+        Paragraph::new(lines)
+            .wrap(Wrap { trim: false })
+            .block(boxed("Before any reading or cut", t)),
+        left,
+    );
+    draw_view(f, right, app);
+}
+
+pub fn draw_settle(f: &mut Frame, area: Rect, app: &App) {
+    let t = app.theme;
+    let (left, right) = split(area);
+    let total = app.shop.settings.settle_minutes.saturating_mul(60).max(1);
+    let recorded = app.attempt().and_then(|a| a.settle.as_ref());
+    let [text, gauge, rest] = Layout::vertical([
+        Constraint::Length(5),
+        Constraint::Length(3),
+        Constraint::Min(1),
+    ])
+    .areas(left);
+    let mut lines = vec![Line::raw(
+        "Blocks warmed by the hand grow: let the stack and the fixture come to room temperature before the readings.",
+    )];
+    let ratio;
+    match (recorded, app.ui.settle_left) {
+        (Some(s), _) => {
+            ratio = 1.0;
+            lines.push(if s.done {
+                Line::styled(format!("✓ settled ({} min)", s.minutes.unwrap_or(0)), t.good())
+            } else {
+                Line::styled("! the wait was skipped (recorded)", t.warn())
+            });
+        }
+        (None, Some(left)) => {
+            ratio = 1.0 - f64::from(left) / f64::from(total);
+            lines.push(Line::styled(
+                format!("settling: {}:{:02} left", left / 60, left % 60),
+                t.next(),
+            ));
+        }
+        (None, None) => {
+            ratio = 0.0;
+            lines.push(Line::raw("the wait has not started"));
+        }
+    }
+    f.render_widget(Paragraph::new(lines).wrap(Wrap { trim: false }), text);
+    f.render_widget(
+        Gauge::default()
+            .block(boxed("Settle", t))
+            .ratio(ratio.clamp(0.0, 1.0))
+            .gauge_style(t.good()),
+        gauge,
+    );
+    f.render_widget(
+        Paragraph::new(vec![Line::styled(
+            "Keep hands off the stack while it settles.",
+            t.dim(),
+        )])
+        .wrap(Wrap { trim: false }),
+        rest,
+    );
+    draw_view(f, right, app);
+}
+
+pub fn next(app: &App) -> String {
+    if app.attempt().is_some_and(|a| a.settle.is_some()) {
+        return "press Enter for the readings".into();
+    }
+    match app.ui.settle_left {
+        Some(l) => format!("let the stack settle ({}:{:02}); s skips the wait", l / 60, l % 60),
+        None => "press s to skip the wait, or Esc to go back".into(),
+    }
+}

@@ -1,0 +1,218 @@
+//! Drawing: from the model only. Picks the screen, draws the shared frame (title, step bar,
+//! next step, status, footer) and any prompt or help on top.
+
+use super::app::{App, Level, STEPS, Screen, step_name};
+use super::chrome::{self, Frame5};
+use super::keymap::Action;
+use super::screens;
+use super::theme::Theme;
+use crate::traveller::{Feature, Step};
+use ratatui::Frame;
+use ratatui::layout::Rect;
+use ratatui::style::Style;
+use ratatui::text::{Line, Span};
+use ratatui::widgets::{Block, Borders, Clear, Paragraph, Wrap};
+
+/// Draw the whole screen.
+pub fn draw(f: &mut Frame, app: &App) {
+    let theme = app.theme;
+    if !chrome::big_enough(f.area()) {
+        chrome::too_small(f, theme);
+        return;
+    }
+    let fr = chrome::frame5(f.area());
+    match app.screen {
+        Screen::Overview => screens::overview::draw(f, fr.body, app),
+        Screen::Name => screens::overview::draw_name(f, fr.body, app),
+        Screen::Flow { step, .. } => {
+            let body = flow_header(f, fr.body, app, step);
+            match step {
+                Step::Fixture => screens::choose::draw_fixtures(f, body, app),
+                Step::BlockSet => screens::choose::draw_sets(f, body, app),
+                Step::Stack => screens::stack::draw(f, body, app),
+                Step::Safety => screens::setup::draw_safety(f, body, app),
+                Step::Settle => screens::setup::draw_settle(f, body, app),
+                Step::Sweep => screens::readings::draw(f, body, app),
+                Step::Verdict => screens::verdict::draw(f, body, app),
+                Step::Sign | Step::Done => screens::verdict::draw_sign(f, body, app),
+            }
+        }
+    }
+    title(f, fr.title, app);
+    chrome::next_step(f, fr.next, &next_words(app), theme);
+    status(f, &fr, app);
+    let hide = hidden_keys(app);
+    chrome::footer(f, fr.footer, app.ctx(), app.typing(), &hide, theme);
+    if let Some(p) = &app.prompt {
+        screens::prompt::draw(f, p, theme);
+    }
+    if app.help {
+        chrome::help_overlay(f, app.ctx(), theme);
+    }
+}
+
+/// Footer entries that do nothing right now.
+fn hidden_keys(app: &App) -> Vec<Action> {
+    let mut hide = Vec::new();
+    if let Screen::Flow { step, .. } = app.screen {
+        let v = app
+            .attempt()
+            .and_then(|a| a.judgement.as_ref())
+            .map(|j| j.verdict);
+        let list = super::flow_check::choices(v);
+        if step == Step::Verdict {
+            if !list.contains(&super::flow_check::After::NewAttempt) {
+                hide.push(Action::NewAttempt);
+            }
+            if !list.contains(&super::flow_check::After::Nonconforming) {
+                hide.push(Action::Nonconforming);
+            }
+        }
+        if step == Step::Settle && app.attempt().is_some_and(|a| a.settle.is_some()) {
+            hide.push(Action::Skip);
+        }
+    }
+    hide
+}
+
+fn title(f: &mut Frame, area: Rect, app: &App) {
+    let t = app.theme;
+    let job = &app.doc.job;
+    let who = if app.operator.is_empty() {
+        "operator: ?".to_string()
+    } else {
+        format!("operator: {}", app.operator)
+    };
+    let mut spans = vec![
+        Span::styled(" tiltbook ", t.selected()),
+        Span::raw(" "),
+        Span::styled(format!("Job {}", job.id), t.title()),
+        Span::raw(format!(" · {}", job.part)),
+    ];
+    if app.read_only {
+        spans.push(Span::styled("  READ-ONLY", t.warn()));
+    }
+    if app.unsaved {
+        spans.push(Span::styled("  NOT SAVED", t.bad()));
+    }
+    let left: usize = spans.iter().map(|s| s.width()).sum();
+    let pad = (area.width as usize).saturating_sub(left + who.chars().count() + 1);
+    spans.push(Span::raw(" ".repeat(pad)));
+    spans.push(Span::styled(who, t.title()));
+    f.render_widget(Paragraph::new(Line::from(spans)), area);
+}
+
+fn status(f: &mut Frame, fr: &Frame5, app: &App) {
+    let t = app.theme;
+    let Some(s) = &app.status else { return };
+    let (tag, style): (&str, Style) = match s.level {
+        Level::Info => ("", t.text()),
+        Level::Done => ("✓ ", t.good()),
+        Level::Warn => ("! ", t.warn()),
+        Level::Error => ("✗ ", t.bad()),
+    };
+    f.render_widget(
+        Paragraph::new(Line::from(vec![Span::styled(tag, style), Span::styled(s.text.clone(), style)])),
+        fr.status,
+    );
+}
+
+/// The feature line and the step bar; returns what is left for the screen.
+fn flow_header(f: &mut Frame, area: Rect, app: &App, step: Step) -> Rect {
+    let t = app.theme;
+    let Some(feat) = app.feature() else {
+        return area;
+    };
+    let attempt = app.attempt().map_or(1, |a| a.number);
+    let reached = app.attempt().map_or(Step::Fixture, |a| a.step);
+    let head = Line::from(vec![
+        Span::styled(format!("{} {}", feat.id, feat.name), t.title()),
+        Span::raw(format!(
+            "  {}  tol {}  attempt {attempt}",
+            nominal_text(feat),
+            feat.tolerance
+        )),
+    ]);
+    let mut bar: Vec<Span> = Vec::new();
+    for (i, s) in STEPS.iter().enumerate() {
+        if i > 0 {
+            bar.push(Span::raw("  "));
+        }
+        let name = step_name(*s);
+        if *s == step {
+            bar.push(Span::styled(format!("▶{name}"), t.selected()));
+        } else if *s < reached {
+            bar.push(Span::styled(format!("✓{name}"), t.text()));
+        } else {
+            bar.push(Span::styled(format!(" {name}"), t.dim()));
+        }
+    }
+    let rows = Rect::new(area.x, area.y, area.width, 2.min(area.height));
+    f.render_widget(
+        Paragraph::new(vec![head, Line::from(bar)]).wrap(Wrap { trim: false }),
+        rows,
+    );
+    Rect::new(
+        area.x,
+        area.y + rows.height,
+        area.width,
+        area.height.saturating_sub(rows.height),
+    )
+}
+
+/// The nominal as shown: the setting angle, and what it is for tapers and compound angles.
+pub fn nominal_text(f: &Feature) -> String {
+    match (f.nominal, f.setting_angle()) {
+        (Some(n), Some(s)) if (n.deg() - s.deg()).abs() > 1e-9 => {
+            format!("{} (set {})", n.dms(0), s.dms(0))
+        }
+        (_, Some(s)) => s.dms(0),
+        (Some(n), None) => n.dms(0),
+        (None, None) => "no angle".into(),
+    }
+}
+
+/// The next action, in words, for the screen shown.
+pub fn next_words(app: &App) -> String {
+    match app.screen {
+        Screen::Name => "type your name or initials and press Enter".into(),
+        Screen::Overview => screens::overview::next_for_job(app),
+        Screen::Flow { step, .. } => {
+            if app.read_only {
+                return "looking only (read-only): Esc goes back, q quits".into();
+            }
+            match step {
+                Step::Fixture => "choose the fixture (↑↓), then press Enter".into(),
+                Step::BlockSet => "choose the block set (↑↓), then press Enter".into(),
+                Step::Stack => screens::stack::next(app),
+                Step::Safety => {
+                    "clamp the work, read the cautions, then press Enter".into()
+                }
+                Step::Settle => screens::setup::next(app),
+                Step::Sweep => screens::readings::next(app),
+                Step::Verdict => screens::verdict::next(app),
+                Step::Sign | Step::Done => {
+                    "type your name or initials and press Enter to sign".into()
+                }
+            }
+        }
+    }
+}
+
+/// A bordered block with a title.
+pub fn boxed(title: &str, theme: Theme) -> Block<'static> {
+    Block::default()
+        .borders(Borders::ALL)
+        .title(Span::styled(format!(" {title} "), theme.title()))
+}
+
+/// Clear an area and draw a paragraph in a titled box.
+pub fn panel(f: &mut Frame, area: Rect, title: &str, lines: Vec<Line<'static>>, theme: Theme) {
+    f.render_widget(Clear, area);
+    f.render_widget(
+        Paragraph::new(lines)
+            .wrap(Wrap { trim: false })
+            .block(boxed(title, theme)),
+        area,
+    );
+}
