@@ -36,8 +36,8 @@ fn each_bad_file_reports_what_it_expects() {
             .collect();
         assert!(!expects.is_empty(), "{} has no # expect: line", f.display());
         let got: Vec<String> = check_text(&text).iter().map(|p| p.to_string()).collect();
-        let ok = got.len() == expects.len()
-            && expects.iter().all(|e| got.iter().any(|g| matches(e, g)));
+        let ok =
+            got.len() == expects.len() && expects.iter().all(|e| got.iter().any(|g| matches(e, g)));
         if !ok {
             failures.push(format!(
                 "{}\n  expected: {expects:#?}\n  got:      {got:#?}",
@@ -53,9 +53,27 @@ fn every_message_says_what_to_do() {
     // each problem names a fix: "add", "give", "remove", "set", "did you mean", "record"…
     let dir = Path::new(env!("CARGO_MANIFEST_DIR")).join("tests/data/travellers-bad");
     let hints = [
-        "add", "give", "remove", "set ", "did you mean", "record", "correct", "recompute",
-        "check", "open it", "write", "list", "raise", "sign", "must", "see docs", "allowed", "use ",
-        "type", "finish", "restore",
+        "add",
+        "give",
+        "remove",
+        "set ",
+        "did you mean",
+        "record",
+        "correct",
+        "recompute",
+        "check",
+        "open it",
+        "write",
+        "list",
+        "raise",
+        "sign",
+        "must",
+        "see docs",
+        "allowed",
+        "use ",
+        "type",
+        "finish",
+        "restore",
     ];
     for e in std::fs::read_dir(dir).unwrap() {
         let p = e.unwrap().path();

@@ -39,7 +39,11 @@ fn a_changed_tolerance_is_named_with_its_line() {
     // F3's tolerance is the third `±0°02'` in the file (F2, F3 share it; F2 comes first)
     let f3 = text.find("- id: F3").unwrap();
     let at = f3 + text[f3..].find("tolerance: ±0°02'").unwrap();
-    let tampered = format!("{}tolerance: ±0°03'{}", &text[..at], &text[at + "tolerance: ±0°02'".len()..]);
+    let tampered = format!(
+        "{}tolerance: ±0°03'{}",
+        &text[..at],
+        &text[at + "tolerance: ±0°02'".len()..]
+    );
     let line = tampered[..at].matches('\n').count() + 1;
     let problems = check_text(&tampered);
     let msgs: Vec<String> = problems.iter().map(|p| p.to_string()).collect();
@@ -49,9 +53,18 @@ fn a_changed_tolerance_is_named_with_its_line() {
         .filter(|m| m.contains("F3: tolerance changed after sign-off"))
         .collect();
     assert_eq!(hits.len(), 2, "{msgs:#?}");
-    assert!(hits.iter().all(|m| m.starts_with(&format!("{line}:"))), "{msgs:#?}");
-    assert!(msgs.iter().any(|m| m.contains("signed by TJ (operator)")), "{msgs:#?}");
-    assert!(msgs.iter().any(|m| m.contains("signed by LV (lead)")), "{msgs:#?}");
+    assert!(
+        hits.iter().all(|m| m.starts_with(&format!("{line}:"))),
+        "{msgs:#?}"
+    );
+    assert!(
+        msgs.iter().any(|m| m.contains("signed by TJ (operator)")),
+        "{msgs:#?}"
+    );
+    assert!(
+        msgs.iter().any(|m| m.contains("signed by LV (lead)")),
+        "{msgs:#?}"
+    );
 }
 
 #[test]
@@ -60,10 +73,20 @@ fn changed_readings_are_named() {
     let f1 = t.feature_mut("F1").unwrap();
     let sw = f1.attempts[0].sweep.as_mut().unwrap();
     sw.readings[2] = Length::parse("0.0002in", Unit::In).unwrap();
-    let s = t.signoffs.iter().find(|s| s.feature.as_deref() == Some("F1")).unwrap();
-    assert_eq!(digest::verify(&t, s), vec![Change::Field("readings".into())]);
+    let s = t
+        .signoffs
+        .iter()
+        .find(|s| s.feature.as_deref() == Some("F1"))
+        .unwrap();
+    assert_eq!(
+        digest::verify(&t, s),
+        vec![Change::Field("readings".into())]
+    );
     let job = t.signoffs.iter().find(|s| s.scope == Scope::Job).unwrap();
-    assert_eq!(digest::verify(&t, job), vec![Change::Field("F1.readings".into())]);
+    assert_eq!(
+        digest::verify(&t, job),
+        vec![Change::Field("F1.readings".into())]
+    );
 }
 
 #[test]
@@ -74,7 +97,9 @@ fn an_edited_digest_is_caught() {
     let forged = format!("{}{}", &d[..63], if d.ends_with('0') { '1' } else { '0' });
     let problems = check_text(&text.replacen(d.as_str(), &forged, 1));
     assert!(
-        problems.iter().any(|p| p.message.contains("the sign-off record was edited")),
+        problems
+            .iter()
+            .any(|p| p.message.contains("the sign-off record was edited")),
         "{problems:#?}"
     );
 }
@@ -82,11 +107,22 @@ fn an_edited_digest_is_caught() {
 #[test]
 fn an_added_feature_is_seen_by_the_job_sign_off() {
     let mut t = parse(&finished_text()).unwrap().traveller;
-    t.features.push(Feature::plain("F6", "extra", Angle::from_deg(10.0), Tolerance::symmetric(Angle::from_deg(0.1))));
+    t.features.push(Feature::plain(
+        "F6",
+        "extra",
+        Angle::from_deg(10.0),
+        Tolerance::symmetric(Angle::from_deg(0.1)),
+    ));
     let job = t.signoffs.iter().find(|s| s.scope == Scope::Job).unwrap();
     let changes = digest::verify(&t, job);
-    assert!(changes.contains(&Change::Field("features".into())), "{changes:?}");
-    assert!(changes.contains(&Change::Added("F6.tolerance".into())), "{changes:?}");
+    assert!(
+        changes.contains(&Change::Field("features".into())),
+        "{changes:?}"
+    );
+    assert!(
+        changes.contains(&Change::Added("F6.tolerance".into())),
+        "{changes:?}"
+    );
 }
 
 #[test]
@@ -97,13 +133,25 @@ fn signing_records_digests_state_and_an_event() {
     .unwrap();
     let mut t = parse(&plan).unwrap().traveller;
     let at = Stamp::parse("2025-03-04T10:00:00+01:00").unwrap();
-    assert!(t.sign(" ", Role::Operator, Scope::Feature, Some("F1"), at).is_err());
-    assert!(t.sign("KM", Role::Operator, Scope::Feature, Some("F9"), at).is_err());
-    let s = t.sign("KM", Role::Lead, Scope::Job, None, at).unwrap().clone();
+    assert!(
+        t.sign(" ", Role::Operator, Scope::Feature, Some("F1"), at)
+            .is_err()
+    );
+    assert!(
+        t.sign("KM", Role::Operator, Scope::Feature, Some("F9"), at)
+            .is_err()
+    );
+    let s = t
+        .sign("KM", Role::Lead, Scope::Job, None, at)
+        .unwrap()
+        .clone();
     assert_eq!(s.digest, digest::combined(&s.fields));
     assert_eq!(s.digest.len(), 64);
     assert_eq!(t.events.last().unwrap().kind, EventKind::Signed);
     assert!(digest::verify(&t, &s).is_empty());
     t.feature_mut("F2").unwrap().name = "renamed".into();
-    assert_eq!(digest::verify(&t, &s), vec![Change::Field("F2.name".into())]);
+    assert_eq!(
+        digest::verify(&t, &s),
+        vec![Change::Field("F2.name".into())]
+    );
 }

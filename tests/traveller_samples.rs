@@ -9,7 +9,9 @@ use std::path::Path;
 use tiltbook::traveller::{FeatureState, Verdict, check_text, parse};
 
 fn read(name: &str) -> String {
-    let p = Path::new(env!("CARGO_MANIFEST_DIR")).join("sample-jobs").join(name);
+    let p = Path::new(env!("CARGO_MANIFEST_DIR"))
+        .join("sample-jobs")
+        .join(name);
     std::fs::read_to_string(&p).unwrap_or_else(|e| panic!("{}: {e}", p.display()))
 }
 
@@ -55,7 +57,14 @@ fn finished_job_has_a_failed_then_passed_feature() {
         .filter_map(|a| a.judgement.as_ref().map(|j| j.verdict))
         .collect();
     assert_eq!(v, vec![Verdict::Fail, Verdict::Pass]);
-    assert!(f3.attempts[0].judgement.as_ref().unwrap().correction.is_some());
+    assert!(
+        f3.attempts[0]
+            .judgement
+            .as_ref()
+            .unwrap()
+            .correction
+            .is_some()
+    );
     assert_eq!(t.progress(), (5, 5));
 }
 
@@ -66,5 +75,12 @@ fn sample_stacks_agree_with_the_sine_table() {
     // 5 in bar at 30°: H = 2.5 in (table row `5in,in,30,0,0,2.5`); the fixture's calibrated
     // centre 5.00004 in adds 0.00002 in, which rounds away at 0.0001 in.
     let f1 = t.feature("F1").unwrap().accepted_attempt().unwrap();
-    assert_eq!(f1.stack.as_ref().unwrap().height.show(tiltbook::units::Unit::In), "2.5000 in");
+    assert_eq!(
+        f1.stack
+            .as_ref()
+            .unwrap()
+            .height
+            .show(tiltbook::units::Unit::In),
+        "2.5000 in"
+    );
 }

@@ -23,7 +23,9 @@ fn finished_sample_round_trips() {
 
 #[test]
 fn plan_file_reads_the_hand_written_forms() {
-    let t = parse(&data("sample-jobs/ds-204-plan.yaml")).unwrap().traveller;
+    let t = parse(&data("sample-jobs/ds-204-plan.yaml"))
+        .unwrap()
+        .traveller;
     assert_eq!(t.schema, 1);
     assert_eq!(t.job.quantity, 6);
     let f1 = t.feature("F1").unwrap();
@@ -41,10 +43,21 @@ fn plan_file_reads_the_hand_written_forms() {
 
 #[test]
 fn a_plan_written_back_stays_short() {
-    let t = parse(&data("sample-jobs/ds-204-plan.yaml")).unwrap().traveller;
+    let t = parse(&data("sample-jobs/ds-204-plan.yaml"))
+        .unwrap()
+        .traveller;
     let y = to_yaml(&t).unwrap();
-    for absent in ["attempts:", "events:", "signoffs:", "fixtures:", "handovers:"] {
-        assert!(!y.contains(absent), "{absent} written for an empty list:\n{y}");
+    for absent in [
+        "attempts:",
+        "events:",
+        "signoffs:",
+        "fixtures:",
+        "handovers:",
+    ] {
+        assert!(
+            !y.contains(absent),
+            "{absent} written for an empty list:\n{y}"
+        );
     }
 }
 
@@ -58,7 +71,10 @@ fn version_0_is_upgraded_on_load() {
     assert!((t.feature("F1").unwrap().nominal.unwrap().deg() - 12.5).abs() < 1e-12);
     let y = to_yaml(&t).unwrap();
     assert!(y.starts_with("schema: 1\n"), "{y}");
-    assert!(y.contains("nominal: 12°30'00\"") && y.contains("unit: mm"), "{y}");
+    assert!(
+        y.contains("nominal: 12°30'00\"") && y.contains("unit: mm"),
+        "{y}"
+    );
     assert!(!y.contains("angle:") && !y.contains("units:"), "{y}");
     assert!(check_text(&y).is_empty(), "{:?}", check_text(&y));
 }
@@ -74,9 +90,22 @@ fn an_upgraded_file_still_points_at_the_line() {
 fn a_newer_file_is_refused_naming_both_versions() {
     let text = data("sample-jobs/ds-204-plan.yaml").replace("schema: 1", "schema: 2");
     let e = parse(&text).unwrap_err();
-    assert!(matches!(e, LoadError::TooNew { found: 2, supported: 1, .. }), "{e:?}");
+    assert!(
+        matches!(
+            e,
+            LoadError::TooNew {
+                found: 2,
+                supported: 1,
+                ..
+            }
+        ),
+        "{e:?}"
+    );
     let m = e.to_string();
-    assert!(m.contains("schema version 2") && m.contains("up to 1"), "{m}");
+    assert!(
+        m.contains("schema version 2") && m.contains("up to 1"),
+        "{m}"
+    );
     assert!(m.contains("newer tiltbook"), "{m}");
 }
 
@@ -85,23 +114,37 @@ fn a_newer_file_is_refused_naming_both_versions() {
 fn taper_half_angles_match_the_reference_table() {
     let text = data("tests/data/travellers-ref/tapers.csv");
     let mut n = 0;
-    for line in text.lines().filter(|l| !l.starts_with('#') && !l.starts_with("spec")) {
+    for line in text
+        .lines()
+        .filter(|l| !l.starts_with('#') && !l.starts_with("spec"))
+    {
         let c: Vec<&str> = line.split(',').collect();
         let (d, len, unit, half, incl) = (c[1], c[2], c[3], c[4], c[5]);
         let taper = if unit == "ratio" {
-            Taper { ratio: Some(format!("{d}:{len}")), ..Taper::default() }
+            Taper {
+                ratio: Some(format!("{d}:{len}")),
+                ..Taper::default()
+            }
         } else {
             assert_eq!(len, "12", "{line}");
             Taper {
-                per_foot: Some(tiltbook::units::Length::parse(&format!("{d}in"), Unit::In).unwrap()),
+                per_foot: Some(
+                    tiltbook::units::Length::parse(&format!("{d}in"), Unit::In).unwrap(),
+                ),
                 ..Taper::default()
             }
         };
         let h = taper.half_angle().unwrap().deg();
         let want: f64 = half.parse().unwrap();
         assert!((h - want).abs() < 1e-9, "{line}: {h}");
-        let inc = Taper { included: Some(Angle::from_deg(incl.parse().unwrap())), ..Taper::default() };
-        assert!((inc.half_angle().unwrap().deg() - want).abs() < 1e-9, "{line}");
+        let inc = Taper {
+            included: Some(Angle::from_deg(incl.parse().unwrap())),
+            ..Taper::default()
+        };
+        assert!(
+            (inc.half_angle().unwrap().deg() - want).abs() < 1e-9,
+            "{line}"
+        );
         n += 1;
     }
     assert!(n >= 8);
@@ -113,9 +156,16 @@ fn taper_half_angles_match_the_reference_table() {
 fn compound_plate_angles_match_the_reference_table() {
     let text = data("tests/data/travellers-ref/compound.csv");
     let mut n = 0;
-    for line in text.lines().filter(|l| !l.starts_with('#') && !l.starts_with("A_deg")) {
+    for line in text
+        .lines()
+        .filter(|l| !l.starts_with('#') && !l.starts_with("A_deg"))
+    {
         let c: Vec<f64> = line.split(',').map(|v| v.parse().unwrap()).collect();
-        let comp = Compound { a: Angle::from_deg(c[0]), b: Angle::from_deg(c[1]), near: NearPlate::A };
+        let comp = Compound {
+            a: Angle::from_deg(c[0]),
+            b: Angle::from_deg(c[1]),
+            near: NearPlate::A,
+        };
         let (near, far) = comp.plate_angles();
         assert!((near.deg() - c[2]).abs() < 1e-7, "{line}");
         assert!((far.deg() - c[3]).abs() < 1e-7, "{line}: {}", far.deg());
@@ -127,7 +177,9 @@ fn compound_plate_angles_match_the_reference_table() {
 
 #[test]
 fn times_keep_their_offset_through_a_save() {
-    let t = parse(&data("sample-jobs/ds-204-finished.yaml")).unwrap().traveller;
+    let t = parse(&data("sample-jobs/ds-204-finished.yaml"))
+        .unwrap()
+        .traveller;
     let y = to_yaml(&t).unwrap();
     assert!(y.contains("at: 2025-03-04T07:12:00-05:00"), "offset lost");
 }

@@ -265,7 +265,8 @@ mod tests {
         assert_eq!(s.resolution().nm(), 500);
         assert_eq!(s.show(Length::from_nm(1_000_500)), "1.0005 mm");
         assert_eq!(s.show(Length::from_nm(58_345_000)), "58.345 mm");
-        s.mark(Length::from_nm(1_000_500), Condition::Missing).unwrap();
+        s.mark(Length::from_nm(1_000_500), Condition::Missing)
+            .unwrap();
         assert_eq!(s.resolution().nm(), 1000);
         let i = BlockSet::from_catalogue("inch-81").unwrap();
         assert_eq!(i.resolution().nm(), 2540);

@@ -5,6 +5,8 @@
 pub mod catalogue;
 pub mod handbook;
 pub mod inventory;
+mod search;
+pub mod solve_error;
 pub mod solver;
 pub mod table;
 

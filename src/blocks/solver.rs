@@ -26,16 +26,18 @@
 //! has to prove a longer stack; it only backs out when the table's stack for a remainder needs
 //! a block already in use.
 
+pub use super::solve_error::{Nearest, SolveError};
+
 use super::inventory::BlockSet;
+use super::search::Search;
 use super::table::{self, MAX_STEPS, UNREACHABLE};
 use crate::units::{Length, Unit};
 use serde::Serialize;
-use std::fmt;
 use std::sync::Arc;
 
-/// The most search steps one request may take before it gives up (never reached by a single
-/// height; a guard for many heights from a thin set).
-const NODE_LIMIT: u64 = 5_000_000;
+/// Several heights at once: how many blocks more than the heights need one by one the search
+/// tries before it reports that they cannot be built together.
+pub const EXTRA_BLOCKS: u32 = 4;
 
 /// One block in a stack.
 #[derive(Debug, Clone, Copy, PartialEq, Eq, Serialize)]
@@ -76,212 +78,28 @@ impl Stack {
     }
 }
 
-/// The buildable heights nearest to one that cannot be built.
-#[derive(Debug, Clone, Copy, PartialEq, Eq, Default)]
-pub struct Nearest {
-    pub below: Option<Length>,
-    pub above: Option<Length>,
-}
-
-/// Why a height (or a group of heights) cannot be built.
-#[derive(Debug, Clone, PartialEq, Eq)]
-pub enum SolveError {
-    /// Zero or negative.
-    NotPositive { height: Length, unit: Unit },
-    /// Lower than the smallest stack the set makes.
-    BelowSmallest {
-        height: Length,
-        smallest: Length,
-        nearest: Nearest,
-        unit: Unit,
-    },
-    /// Taller than every usable block together.
-    AboveTotal {
-        height: Length,
-        total: Length,
-        nearest: Nearest,
-        unit: Unit,
-    },
-    /// Finer than the set's sizes go.
-    OffStep {
-        height: Length,
-        step: Length,
-        nearest: Nearest,
-        unit: Unit,
-    },
-    /// Within the set's range, but no combination adds up to it.
-    Gap {
-        height: Length,
-        nearest: Nearest,
-        unit: Unit,
-    },
-    /// Protectors asked for, but the set has none.
-    NoProtectors { set: String },
-    /// Protectors asked for on more than one stack; a set has one pair.
-    OnePairOnly { stacks: usize },
-    /// Each height can be built alone, but not all at once without sharing a block.
-    NotDisjoint { heights: Vec<Length>, unit: Unit },
-    /// The search for several heights took too long to decide.
-    SearchLimit { heights: Vec<Length>, unit: Unit },
-    /// Nothing usable in the set.
-    NoUsableBlocks { set: String },
-    /// The sizes have so fine a common step that the table would be too large.
-    TooFine { set: String, steps: u128 },
-    /// Too many blocks (or worn blocks) for the table's cost counter.
-    TooManyBlocks { set: String, blocks: usize },
-}
-
-fn show(l: Length, unit: Unit) -> String {
-    format!("{} {}", l.exact_number(unit, unit.places()), unit.symbol())
-}
-
-fn list(hs: &[Length], unit: Unit) -> String {
-    hs.iter()
-        .map(|h| show(*h, unit))
-        .collect::<Vec<_>>()
-        .join(", ")
-}
-
-impl SolveError {
-    /// The nearest buildable heights, when the error is about one height the set cannot make.
-    pub fn nearest(&self) -> Option<Nearest> {
-        match self {
-            SolveError::BelowSmallest { nearest, .. }
-            | SolveError::AboveTotal { nearest, .. }
-            | SolveError::OffStep { nearest, .. }
-            | SolveError::Gap { nearest, .. } => Some(*nearest),
-            _ => None,
-        }
-    }
-    /// The height the error is about, when it is about one height.
-    pub fn height(&self) -> Option<Length> {
-        match self {
-            SolveError::NotPositive { height, .. }
-            | SolveError::BelowSmallest { height, .. }
-            | SolveError::AboveTotal { height, .. }
-            | SolveError::OffStep { height, .. }
-            | SolveError::Gap { height, .. } => Some(*height),
-            _ => None,
-        }
-    }
-    /// The reason alone, without the nearest heights.
-    pub fn reason(&self) -> String {
-        match self {
-            SolveError::NotPositive { height, unit } => format!(
-                "{} is not a stack height: a stack must be taller than zero",
-                show(*height, *unit)
-            ),
-            SolveError::BelowSmallest {
-                height,
-                smallest,
-                unit,
-                ..
-            } => format!(
-                "{} is below the smallest stack this set makes ({})",
-                show(*height, *unit),
-                show(*smallest, *unit)
-            ),
-            SolveError::AboveTotal {
-                height,
-                total,
-                unit,
-                ..
-            } => format!(
-                "{} is more than all the set's usable blocks together ({})",
-                show(*height, *unit),
-                show(*total, *unit)
-            ),
-            SolveError::OffStep {
-                height, step, unit, ..
-            } => format!(
-                "{} is finer than the set's sizes go (every stack is a whole number of {} steps)",
-                height.exact_number(*unit, 0) + " " + unit.symbol(),
-                show(*step, *unit)
-            ),
-            SolveError::Gap { height, unit, .. } => format!(
-                "{} falls between heights the set can make: no combination of its usable blocks adds up to it",
-                show(*height, *unit)
-            ),
-            SolveError::NoProtectors { set } => format!(
-                "set {set} has no protector blocks; leave out --protect, or add `protectors: 0.050in` (or 1mm, 2mm) to the set in the shop file"
-            ),
-            SolveError::OnePairOnly { stacks } => format!(
-                "{stacks} stacks each need a pair of protector blocks, but a set has one pair; protect one stack only or none"
-            ),
-            SolveError::NotDisjoint { heights, unit } => format!(
-                "{} can each be built, but not all at once from one set without sharing a block; use a second set for one stack",
-                list(heights, *unit)
-            ),
-            SolveError::SearchLimit { heights, unit } => format!(
-                "the search for {} at once from one set took too long to decide; build them from two sets",
-                list(heights, *unit)
-            ),
-            SolveError::NoUsableBlocks { set } => format!(
-                "set {set} has no usable blocks (all missing or damaged); check the set in the shop file"
-            ),
-            SolveError::TooFine { set, steps } => format!(
-                "set {set}: its sizes have so fine a common step that tiltbook would need {steps} steps (it handles up to {MAX_STEPS}); check the sizes for a typing mistake"
-            ),
-            SolveError::TooManyBlocks { set, blocks } => format!(
-                "set {set} has {blocks} usable blocks (or too many worn ones) for the solver; split it into two sets"
-            ),
-        }
-    }
-}
-
-impl fmt::Display for SolveError {
-    fn fmt(&self, f: &mut fmt::Formatter<'_>) -> fmt::Result {
-        f.write_str(&self.reason())?;
-        if let (Some(n), Some(unit)) = (self.nearest(), self.unit()) {
-            let below = n.below.map(|l| show(l, unit));
-            let above = n.above.map(|l| show(l, unit));
-            match (below, above) {
-                (Some(b), Some(a)) => write!(f, "; nearest buildable: {b} below, {a} above")?,
-                (Some(b), None) => write!(f, "; nearest buildable: {b} below")?,
-                (None, Some(a)) => write!(f, "; nearest buildable: {a} above")?,
-                (None, None) => {}
-            }
-        }
-        Ok(())
-    }
-}
-
-impl std::error::Error for SolveError {}
-
-impl SolveError {
-    fn unit(&self) -> Option<Unit> {
-        match self {
-            SolveError::NotPositive { unit, .. }
-            | SolveError::BelowSmallest { unit, .. }
-            | SolveError::AboveTotal { unit, .. }
-            | SolveError::OffStep { unit, .. }
-            | SolveError::Gap { unit, .. }
-            | SolveError::NotDisjoint { unit, .. }
-            | SolveError::SearchLimit { unit, .. } => Some(*unit),
-            _ => None,
-        }
-    }
-}
-
 #[derive(Debug, Clone, Copy)]
-struct Entry {
-    size: usize,
-    cost: u16,
-    worn: bool,
-    set_index: usize,
+pub(super) struct Entry {
+    pub size: usize,
+    pub cost: u16,
+    pub worn: bool,
+    pub set_index: usize,
 }
 
 #[derive(Debug)]
-struct Prepared {
-    set_id: String,
-    unit: Unit,
-    step: i64,
-    entries: Vec<Entry>,
+pub(super) struct Prepared {
+    pub set_id: String,
+    pub unit: Unit,
+    pub step: i64,
+    /// usable blocks, largest first (equal sizes in set order)
+    pub entries: Vec<Entry>,
     /// suffix[j] = sum of entries[j..] sizes
-    suffix: Vec<usize>,
-    table: Vec<u16>,
-    per_block: u16,
-    protector: Option<Length>,
+    pub suffix: Vec<usize>,
+    pub table: Vec<u16>,
+    pub per_block: u16,
+    pub protector: Option<Length>,
+    /// heights are also checked modulo this many steps (0.01 in, 0.1 mm), see `search`
+    pub modulus: usize,
 }
 
 /// A solver for one block set as the shop has it. Cheap to clone.
@@ -314,7 +132,10 @@ impl Solver {
             step = gcd(step, p.size.nm());
         }
         let step = step.max(1);
-        let total: u128 = usable.iter().map(|(_, b)| (b.size.nm() / step) as u128).sum();
+        let total: u128 = usable
+            .iter()
+            .map(|(_, b)| (b.size.nm() / step) as u128)
+            .sum();
         if total > MAX_STEPS as u128 {
             return Err(SolveError::TooFine {
                 set: set.id.clone(),
@@ -353,6 +174,13 @@ impl Solver {
         }
         let pairs: Vec<(usize, u16)> = entries.iter().map(|e| (e.size, e.cost)).collect();
         let table = table::build(&pairs, total as usize);
+        // 0.01 in or 0.1 mm (or the coarsest decimal of the unit the step divides, at most 256 steps)
+        let modulus = (1..=4)
+            .map(|d| set.unit.nm() / 10_i64.pow(d))
+            .filter(|size| size % step == 0 && size / step <= 256)
+            .map(|size| (size / step) as usize)
+            .max()
+            .unwrap_or(1);
         Ok(Solver {
             p: Arc::new(Prepared {
                 set_id: set.id.clone(),
@@ -363,6 +191,7 @@ impl Solver {
                 table,
                 per_block,
                 protector: set.protectors.map(|p| p.size),
+                modulus,
             }),
             protect: false,
         })
@@ -479,19 +308,19 @@ impl Solver {
             });
         }
         let least: u32 = bounds.iter().map(|&b| b as u32).sum();
-        let most: u32 = self.p.entries.iter().map(|e| e.cost as u32).sum();
-        let mut s = Search {
-            p: &self.p,
-            targets: &targets,
-            bounds: &bounds,
-            used: vec![false; self.p.entries.len()],
-            path: Vec::new(),
-            ends: Vec::new(),
-            nodes: 0,
-        };
+        let all: u32 = self.p.entries.iter().map(|e| e.cost as u32).sum();
+        let most = all.min(least + EXTRA_BLOCKS * self.p.per_block as u32);
+        let mut s = Search::new(&self.p, &targets, &bounds);
         for budget in least..=most {
             match s.stacks_from(0, budget) {
                 Ok(true) => return Ok(self.assemble(heights, &s.path, &s.ends)),
+                // not at the least cost: first see whether two heights need the same block
+                Ok(false) if budget == least && s.shared_necessary_block() => {
+                    return Err(SolveError::NotDisjoint {
+                        heights: heights.to_vec(),
+                        unit,
+                    });
+                }
                 Ok(false) => {}
                 Err(()) => {
                     return Err(SolveError::SearchLimit {
@@ -627,88 +456,5 @@ impl Solver {
             start = end;
         }
         out
-    }
-}
-
-struct Search<'a> {
-    p: &'a Prepared,
-    targets: &'a [usize],
-    bounds: &'a [u16],
-    used: Vec<bool>,
-    /// chosen entries, stack after stack
-    path: Vec<usize>,
-    /// where each finished stack ends in `path`
-    ends: Vec<usize>,
-    nodes: u64,
-}
-
-impl Search<'_> {
-    /// Build stacks k.. within `budget` in total. Err(()) when the node limit is reached.
-    fn stacks_from(&mut self, k: usize, budget: u32) -> Result<bool, ()> {
-        if k == self.targets.len() {
-            return Ok(true);
-        }
-        let rest: u32 = self.bounds[k + 1..].iter().map(|&b| b as u32).sum();
-        let first = self.bounds[k] as u32;
-        if budget < first + rest {
-            return Ok(false);
-        }
-        for cost in first..=budget - rest {
-            let Ok(c) = u16::try_from(cost) else {
-                break;
-            };
-            if self.one(k, self.targets[k], c, 0, budget - cost)? {
-                return Ok(true);
-            }
-        }
-        Ok(false)
-    }
-
-    /// Extend stack k: `r` steps left to make at exactly `cost`, from entries `from..`.
-    fn one(&mut self, k: usize, r: usize, cost: u16, from: usize, rest: u32) -> Result<bool, ()> {
-        if r == 0 {
-            if cost != 0 {
-                return Ok(false);
-            }
-            self.ends.push(self.path.len());
-            if self.stacks_from(k + 1, rest)? {
-                return Ok(true);
-            }
-            self.ends.pop();
-            return Ok(false);
-        }
-        self.nodes += 1;
-        if self.nodes > NODE_LIMIT {
-            return Err(());
-        }
-        let entries = &self.p.entries;
-        let first = entries.partition_point(|e| e.size > r).max(from);
-        let mut tried: Option<(usize, bool)> = None;
-        for j in first..entries.len() {
-            if self.p.suffix[j] < r {
-                break;
-            }
-            if self.used[j] {
-                continue;
-            }
-            let e = entries[j];
-            if e.cost > cost || tried == Some((e.size, e.worn)) {
-                continue;
-            }
-            let left = cost - e.cost;
-            let need = self.p.table[r - e.size];
-            if need == UNREACHABLE || need > left {
-                continue;
-            }
-            tried = Some((e.size, e.worn));
-            self.used[j] = true;
-            self.path.push(j);
-            if self.one(k, r - e.size, left, j + 1, rest)? {
-                return Ok(true);
-            }
-            self.path.pop();
-            self.used[j] = false;
-        }
-        Ok(false)
     }
 }

@@ -28,7 +28,10 @@ pub fn run(args: &CheckArgs, out: &mut dyn Write) -> Result<ExitCode, CliError> 
             Ok(bytes) => match String::from_utf8(bytes) {
                 Ok(t) => t,
                 Err(_) => {
-                    emit(out, &format!("{name}:1:1: the file is not UTF-8 text; save it as UTF-8\n"))?;
+                    emit(
+                        out,
+                        &format!("{name}:1:1: the file is not UTF-8 text; save it as UTF-8\n"),
+                    )?;
                     found = true;
                     continue;
                 }

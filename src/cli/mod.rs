@@ -7,6 +7,8 @@ use thiserror::Error;
 
 pub mod center;
 pub mod check;
+pub mod demo;
+pub mod open;
 pub mod report;
 pub mod shop;
 pub mod stack;
@@ -81,6 +83,10 @@ pub enum Command {
     Check(check::CheckArgs),
     /// A report of a traveller: text, Markdown or standalone HTML
     Report(report::ReportArgs),
+    /// Work on a traveller in the full-screen operator screens
+    Open(open::OpenArgs),
+    /// Write the built-in demo job (an invented part) to a new file and open it
+    Demo(demo::DemoArgs),
 }
 
 /// Run the parsed command, writing results to `out`.
@@ -92,5 +98,7 @@ pub fn run(cli: Cli, out: &mut dyn Write) -> Result<ExitCode, CliError> {
         Command::Shop(a) => shop::run(&a, out),
         Command::Check(a) => check::run(&a, out),
         Command::Report(a) => report::run(&a, out),
+        Command::Open(a) => open::run(&a, out),
+        Command::Demo(a) => demo::run(&a, out),
     }
 }

@@ -77,7 +77,11 @@ fn choose_set(shop: &Shop, id: &str, protect: bool) -> Result<Chosen, CliError> 
     let mut notes = Vec::new();
     let own_file = !matches!(shop.source, crate::shop::ShopSource::BuiltIn { .. });
     if origin == SetOrigin::Catalogue && own_file {
-        let own: Vec<String> = shop.sets_from(&set.id).iter().map(|s| s.id.clone()).collect();
+        let own: Vec<String> = shop
+            .sets_from(&set.id)
+            .iter()
+            .map(|s| s.id.clone())
+            .collect();
         if !own.is_empty() {
             notes.push(format!(
                 "{} here is the complete standard set; the shop's own set {} may lack blocks (use --set {} to build from it)",
@@ -181,11 +185,7 @@ fn worn_note(stack: &Stack, unit: Unit) -> Option<String> {
 }
 
 /// The exit-1 message for a height the set cannot make; with an angle, what each nearest gives.
-fn unmet(
-    e: &SolveError,
-    set: &BlockSet,
-    angle: Option<(Angle, &SineFixture)>,
-) -> CliError {
+fn unmet(e: &SolveError, set: &BlockSet, angle: Option<(Angle, &SineFixture)>) -> CliError {
     let unit = set.unit;
     let mut m = format!("cannot build the stack from set {}: {}", set.id, e.reason());
     if let Some(n) = e.nearest() {
@@ -229,13 +229,21 @@ pub fn run(args: &StackArgs, out: &mut dyn Write) -> Result<ExitCode, CliError> 
     let angle = Angle::parse(angle_text).map_err(usage)?;
     SineFixture::check_angle(angle).map_err(usage)?;
     let needs_shop = args.fixture.is_some() || args.set.is_some();
-    let shop = if needs_shop { Some(load_shop(args)?) } else { None };
+    let shop = if needs_shop {
+        Some(load_shop(args)?)
+    } else {
+        None
+    };
     let fixture: Option<Fixture> = match (&args.fixture, &shop) {
         (Some(id), Some(shop)) => Some(shop.fixture(id).cloned().ok_or_else(|| {
             usage(format!(
                 "there is no fixture '{id}' in {}; use one of: {}",
                 shop.source,
-                shop.fixtures.iter().map(|f| f.id.as_str()).collect::<Vec<_>>().join(", ")
+                shop.fixtures
+                    .iter()
+                    .map(|f| f.id.as_str())
+                    .collect::<Vec<_>>()
+                    .join(", ")
             ))
         })?),
         _ => None,
@@ -244,7 +252,8 @@ pub fn run(args: &StackArgs, out: &mut dyn Write) -> Result<ExitCode, CliError> 
         (Some(f), _) => (f.sine(), f.unit),
         (None, Some(c)) => {
             let unit = unit_of(c);
-            let center = Length::parse_positive(c, unit).map_err(|e| usage(format!("--center: {e}")))?;
+            let center =
+                Length::parse_positive(c, unit).map_err(|e| usage(format!("--center: {e}")))?;
             let (p, r) = match &args.rolls {
                 Some(r) => parse_rolls(r)?,
                 None => (Length::ZERO, Length::ZERO),
@@ -411,24 +420,53 @@ impl Ctx<'_> {
         let mut t = format!("Sine setup for {} on {on}\n", a.nominal);
         let step = format!("{} {u}", num(self.step(), u));
         let row = |label: &str, v: String| format!("  {label:<16}{v}\n");
-        t.push_str(&row("ideal height", format!("{} {u}", d.ideal_height.exact_number(u, u.places()))));
+        t.push_str(&row(
+            "ideal height",
+            format!("{} {u}", d.ideal_height.number(u, u.places() + 2)),
+        ));
         t.push_str(&row("stack height", format!("{} {u}", num(d.height, u))));
         t.push_str(&row("achieved angle", d.achieved.to_string()));
         t.push_str(&row("error", format!("{:+.2}\"", d.error.arcsec())));
-        t.push_str(&row("sensitivity", format!("{:.2}\" per {step} of stack", d.sensitivity.arcsec())));
+        t.push_str(&row(
+            "sensitivity",
+            format!("{:.2}\" per {step} of stack", d.sensitivity.arcsec()),
+        ));
         if let Some(c) = &a.complement {
             t.push_str(&format!(
                 "\nSteep angle: the complement setup (set {}, turn the work on an angle plate), side by side:\n",
                 c.setting.dms(0)
             ));
-            t.push_str(&format!("  {:<16}{:<22}{}\n", "", format!("direct {}", d.setting.dm()), format!("complement {}", c.setting.dm())));
+            let (x, y) = (
+                format!("direct {}", d.setting.dm()),
+                format!("complement {}", c.setting.dm()),
+            );
+            t.push_str(&format!("  {:<16}{x:<22}{y}\n", ""));
             let pair = |label: &str, x: String, y: String| format!("  {label:<16}{x:<22}{y}\n");
-            t.push_str(&pair("stack height", format!("{} {u}", num(d.height, u)), format!("{} {u}", num(c.height, u))));
-            t.push_str(&pair("error", format!("{:+.2}\"", d.error.arcsec()), format!("{:+.2}\"", c.error.arcsec())));
-            t.push_str(&pair("per step", format!("{:.2}\"", d.sensitivity.arcsec()), format!("{:.2}\"", c.sensitivity.arcsec())));
+            t.push_str(&pair(
+                "stack height",
+                format!("{} {u}", num(d.height, u)),
+                format!("{} {u}", num(c.height, u)),
+            ));
+            t.push_str(&pair(
+                "error",
+                format!("{:+.2}\"", d.error.arcsec()),
+                format!("{:+.2}\"", c.error.arcsec()),
+            ));
+            t.push_str(&pair(
+                "per step",
+                format!("{:.2}\"", d.sensitivity.arcsec()),
+                format!("{:.2}\"", c.sensitivity.arcsec()),
+            ));
             if self.chosen.is_some() {
-                let count = |s: Option<&Stack>| s.map(|s| s.block_count().to_string()).unwrap_or_else(|| "cannot build".into());
-                t.push_str(&pair("blocks", count(self.stack), count(self.complement_stack)));
+                let count = |s: Option<&Stack>| {
+                    s.map(|s| s.block_count().to_string())
+                        .unwrap_or_else(|| "cannot build".into())
+                };
+                t.push_str(&pair(
+                    "blocks",
+                    count(self.stack),
+                    count(self.complement_stack),
+                ));
             }
         }
         if let (Some(s), Some(c)) = (self.stack, self.chosen) {

@@ -224,7 +224,9 @@ impl Shop {
     /// The shop's block set with this id (ASCII case ignored).
     pub fn block_set(&self, id: &str) -> Option<&BlockSet> {
         let id = id.trim();
-        self.block_sets.iter().find(|s| s.id.eq_ignore_ascii_case(id))
+        self.block_sets
+            .iter()
+            .find(|s| s.id.eq_ignore_ascii_case(id))
     }
 
     /// The set `--set ID` names: the shop's set with that id, or else a complete standard set
@@ -333,7 +335,10 @@ mod tests {
             }
         );
         assert_eq!(
-            ShopSource::BuiltIn { config: Some(cfg.clone()) }.init_target(),
+            ShopSource::BuiltIn {
+                config: Some(cfg.clone())
+            }
+            .init_target(),
             Some(cfg.as_path())
         );
     }
@@ -360,9 +365,18 @@ mod file_tests {
         assert_eq!(bar.center, Length::from_nm(127_000_508));
         let set = shop.block_set("BX81-A").unwrap();
         assert_eq!(set.blocks.len(), 81);
-        assert_eq!(set.sizes_in(Condition::Missing), vec![Length::from_nm(2540 * 1007)]);
-        assert_eq!(set.sizes_in(Condition::Worn), vec![Length::from_nm(2540 * 1010)]);
-        assert_eq!(set.protectors.map(|p| p.size), Some(Length::from_nm(1_270_000)));
+        assert_eq!(
+            set.sizes_in(Condition::Missing),
+            vec![Length::from_nm(2540 * 1007)]
+        );
+        assert_eq!(
+            set.sizes_in(Condition::Worn),
+            vec![Length::from_nm(2540 * 1010)]
+        );
+        assert_eq!(
+            set.protectors.map(|p| p.size),
+            Some(Length::from_nm(1_270_000))
+        );
     }
 
     fn err(text: &str) -> String {
@@ -377,20 +391,41 @@ mod file_tests {
         let base = "fixtures:\n  - id: A\n    kind: sine bar\n    center: 5in\n    rolls: [0.75in, 0.75in]\n    calibrated: 2026-01-01\n    center_uncertainty: 0.00005in\n    largest_stack: 4in\n    angle_range: [0, 60]\n";
         assert_eq!(err(base), "(no error)");
         let e = err(&base.replace("center: 5in", "center: 5"));
-        assert!(e.starts_with("t.yaml:4:13:") && e.contains("5in or 5mm"), "{e}");
+        assert!(
+            e.starts_with("t.yaml:4:13:") && e.contains("5in or 5mm"),
+            "{e}"
+        );
         let e = err(&base.replace("    kind: sine bar", "    kind: sine bars"));
-        assert!(e.starts_with("t.yaml:3:11:") && e.contains("sine bar"), "{e}");
+        assert!(
+            e.starts_with("t.yaml:3:11:") && e.contains("sine bar"),
+            "{e}"
+        );
         let e = err(&format!("{base}    colour: red\n"));
-        assert!(e.starts_with("t.yaml:10:5:") && e.contains("unknown field `colour`"), "{e}");
+        assert!(
+            e.starts_with("t.yaml:10:5:") && e.contains("unknown field `colour`"),
+            "{e}"
+        );
         let e = err(&base.replace("2026-01-01", "2026-13-01"));
-        assert!(e.starts_with("t.yaml:6:17:") && e.contains("YYYY-MM-DD"), "{e}");
+        assert!(
+            e.starts_with("t.yaml:6:17:") && e.contains("YYYY-MM-DD"),
+            "{e}"
+        );
         let e = err(&base.replace("[0, 60]", "[60, 0]"));
-        assert!(e.starts_with("t.yaml:9:") && e.contains("smallest first"), "{e}");
+        assert!(
+            e.starts_with("t.yaml:9:") && e.contains("smallest first"),
+            "{e}"
+        );
         let e = err(&base.replace("    largest_stack: 4in\n", ""));
-        assert!(e.contains("missing field `largest_stack`") && e.contains("--init"), "{e}");
+        assert!(
+            e.contains("missing field `largest_stack`") && e.contains("--init"),
+            "{e}"
+        );
         let dup = format!("{base}{}", &base["fixtures:\n".len()..]);
         let e = err(&dup);
-        assert!(e.starts_with("t.yaml:10:5:") && e.contains("used twice"), "{e}");
+        assert!(
+            e.starts_with("t.yaml:10:5:") && e.contains("used twice"),
+            "{e}"
+        );
     }
 
     #[test]
@@ -398,15 +433,30 @@ mod file_tests {
         let set = "block_sets:\n  - id: S\n    catalogue: inch-81\n    missing: [0.1008in]\n";
         assert_eq!(err(set), "(no error)");
         let e = err(&set.replace("inch-81", "inch-82"));
-        assert!(e.starts_with("t.yaml:3:16:") && e.contains("inch-81, metric-88"), "{e}");
+        assert!(
+            e.starts_with("t.yaml:3:16:") && e.contains("inch-81, metric-88"),
+            "{e}"
+        );
         let e = err(&set.replace("0.1008in", "0.1010in, 0.1010in"));
-        assert!(e.starts_with("t.yaml:4:5:") && e.contains("0.1010 in"), "{e}");
+        assert!(
+            e.starts_with("t.yaml:4:5:") && e.contains("0.1010 in"),
+            "{e}"
+        );
         let e = err("block_sets:\n  - id: S\n    grade: ISO 5\n    catalogue: inch-81\n");
-        assert!(e.starts_with("t.yaml:3:12:") && e.contains("ASME AS-1"), "{e}");
+        assert!(
+            e.starts_with("t.yaml:3:12:") && e.contains("ASME AS-1"),
+            "{e}"
+        );
         let e = err("block_sets:\n  - id: S\n    sizes: [1in, 25mm]\n");
-        assert!(e.starts_with("t.yaml:3:5:") && e.contains("unit: in"), "{e}");
+        assert!(
+            e.starts_with("t.yaml:3:5:") && e.contains("unit: in"),
+            "{e}"
+        );
         let e = err("block_sets:\n  - id: S\n    grade: ISO 1\n");
-        assert!(e.starts_with("t.yaml:2:5:") && e.contains("catalogue: inch-81"), "{e}");
+        assert!(
+            e.starts_with("t.yaml:2:5:") && e.contains("catalogue: inch-81"),
+            "{e}"
+        );
         let ok = parse("block_sets:\n  - id: S\n    sizes: [0.1001in, 0.050in x2, 1in]\n").unwrap();
         assert_eq!(ok.block_sets[0].blocks.len(), 4);
         let e = err("");

@@ -166,6 +166,8 @@ fn yaml_error(e: &serde_yaml::Error, origin: &str) -> ShopError {
         let tail = format!(" at line {} column {}", loc.line(), loc.column());
         if let Some(m) = message.strip_suffix(&tail) {
             message = m.to_string();
+        } else {
+            message = message.replacen(&tail, "", 1);
         }
     }
     if message.contains("unknown field") {
@@ -176,6 +178,15 @@ fn yaml_error(e: &serde_yaml::Error, origin: &str) -> ShopError {
         );
     } else if message.contains("unknown variant") {
         message.push_str("; use one of those words exactly");
+    } else if message.contains("while parsing")
+        || message.contains("while scanning")
+        || message.contains("did not find expected")
+        || message.contains("found character that cannot start")
+        || message.contains("mapping values are not allowed")
+    {
+        message.push_str(
+            "; check the brackets, quotes, colons and indentation there and on the line before (indent with spaces, not tabs)",
+        );
     }
     match e.location() {
         Some(loc) => ShopError::Syntax {
@@ -215,18 +226,26 @@ pub(super) fn parse(text: &str, origin: &str) -> Result<(Vec<Fixture>, Vec<Block
     }
     let mut fixtures: Vec<Fixture> = Vec::new();
     for f in raw.fixtures {
-        let nth = usize::from(fixtures.iter().any(|g| g.id.eq_ignore_ascii_case(f.id.trim())));
+        let nth = usize::from(
+            fixtures
+                .iter()
+                .any(|g| g.id.eq_ignore_ascii_case(f.id.trim())),
+        );
         let err = |key: Option<&str>, m: String| at(origin, text, ("fixtures", &f.id, nth), key, m);
         if f.id.trim().is_empty() {
             return Err(ShopError::Invalid {
                 origin: origin.into(),
-                message: "a fixture has an empty id; give each fixture a name, e.g. `id: SB5-01`".into(),
+                message: "a fixture has an empty id; give each fixture a name, e.g. `id: SB5-01`"
+                    .into(),
             });
         }
         if nth > 0 {
             return Err(err(
                 None,
-                format!("fixture id '{}' is used twice; give each fixture its own id", f.id),
+                format!(
+                    "fixture id '{}' is used twice (ids are compared ignoring case); give each fixture its own id",
+                    f.id
+                ),
             ));
         }
         if let Some(d) = f.calibration_due
@@ -258,28 +277,37 @@ pub(super) fn parse(text: &str, origin: &str) -> Result<(Vec<Fixture>, Vec<Block
     let mut sets: Vec<BlockSet> = Vec::new();
     for s in raw.block_sets {
         let nth = usize::from(sets.iter().any(|g| g.id.eq_ignore_ascii_case(s.id.trim())));
-        let err = |key: Option<&str>, m: String| at(origin, text, ("block_sets", &s.id, nth), key, m);
+        let err =
+            |key: Option<&str>, m: String| at(origin, text, ("block_sets", &s.id, nth), key, m);
         if s.id.trim().is_empty() {
             return Err(ShopError::Invalid {
                 origin: origin.into(),
-                message: "a block set has an empty id; give each set a name, e.g. `id: BX81-A`".into(),
+                message: "a block set has an empty id; give each set a name, e.g. `id: BX81-A`"
+                    .into(),
             });
         }
         if nth > 0 {
             return Err(err(
                 None,
-                format!("block set id '{}' is used twice; give each set its own id", s.id),
+                format!(
+                    "block set id '{}' is used twice (ids are compared ignoring case); give each set its own id",
+                    s.id
+                ),
             ));
         }
         let mut set = match (&s.catalogue, &s.sizes) {
             (Some(c), None) => {
-                let set = BlockSet::from_catalogue(&c.0).map_err(|e| err(Some("catalogue"), e.to_string()))?;
+                let set = BlockSet::from_catalogue(&c.0)
+                    .map_err(|e| err(Some("catalogue"), e.to_string()))?;
                 if let Some(u) = s.unit
                     && u != set.unit
                 {
                     return Err(err(
                         Some("unit"),
-                        format!("set {} is in {}, not {u}; leave `unit:` out for a standard set", c.0, set.unit),
+                        format!(
+                            "set {} is in {}, not {u}; leave `unit:` out for a standard set",
+                            c.0, set.unit
+                        ),
                     ));
                 }
                 set
@@ -298,8 +326,10 @@ pub(super) fn parse(text: &str, origin: &str) -> Result<(Vec<Fixture>, Vec<Block
                         first
                     }
                 };
-                let list: Vec<(Length, u32)> = sizes.iter().map(|z| (z.size.len, z.count)).collect();
-                BlockSet::from_sizes(&s.id, unit, &list).map_err(|e| err(Some("sizes"), e.to_string()))?
+                let list: Vec<(Length, u32)> =
+                    sizes.iter().map(|z| (z.size.len, z.count)).collect();
+                BlockSet::from_sizes(&s.id, unit, &list)
+                    .map_err(|e| err(Some("sizes"), e.to_string()))?
             }
             (Some(_), Some(_)) => {
                 return Err(err(
@@ -321,7 +351,8 @@ pub(super) fn parse(text: &str, origin: &str) -> Result<(Vec<Fixture>, Vec<Block
             ("worn", &s.worn, Condition::Worn),
         ] {
             let sizes: Vec<Length> = list.iter().map(|l| l.len).collect();
-            set.mark_all(&sizes, cond).map_err(|e| err(Some(key), e.to_string()))?;
+            set.mark_all(&sizes, cond)
+                .map_err(|e| err(Some(key), e.to_string()))?;
         }
         set.protectors = s.protectors.map(|p| Protectors { size: p.len });
         set.grade = s.grade.map(|g| g.0);
@@ -342,7 +373,10 @@ mod tests {
         let text = "fixtures:\n  - id: A\n    kind: sine bar\n  - id: B\n    kind: x\nblock_sets:\n  - id: A\n    worn: []\n";
         assert_eq!(locate(text, "fixtures", "B", Some("kind"), 0), Some((5, 5)));
         assert_eq!(locate(text, "fixtures", "A", None, 0), Some((2, 5)));
-        assert_eq!(locate(text, "block_sets", "A", Some("worn"), 0), Some((8, 5)));
+        assert_eq!(
+            locate(text, "block_sets", "A", Some("worn"), 0),
+            Some((8, 5))
+        );
         // a key the item does not have: the id line
         assert_eq!(locate(text, "fixtures", "A", Some("note"), 0), Some((2, 5)));
         assert_eq!(locate(text, "fixtures", "A", None, 1), None);

@@ -4,8 +4,8 @@
 use crate::blocks::{Grade, catalogue};
 use crate::units::{Angle, Length, Unit};
 use jiff::civil::Date;
-use serde::de::{self, Deserializer, SeqAccess, Visitor};
 use serde::Deserialize;
+use serde::de::{self, Deserializer, SeqAccess, Visitor};
 use std::fmt;
 
 /// A length written with its unit, more than zero.
@@ -20,14 +20,14 @@ pub(super) fn parse_len(s: &str) -> Result<YLen, String> {
     let lower = t.to_ascii_lowercase();
     let unit = if lower.ends_with("mm") {
         Unit::Mm
-    } else if lower.ends_with("in") || lower.ends_with("inch") || lower.ends_with('"') {
-        Unit::In
-    } else if lower.ends_with("inches") {
+    } else if lower.ends_with("in")
+        || lower.ends_with("inch")
+        || lower.ends_with("inches")
+        || lower.ends_with('"')
+    {
         Unit::In
     } else {
-        return Err(format!(
-            "'{t}' needs a unit: write it as {t}in or {t}mm"
-        ));
+        return Err(format!("'{t}' needs a unit: write it as {t}in or {t}mm"));
     };
     let len = Length::parse(t, unit).map_err(|e| e.to_string())?;
     if len.nm() <= 0 {
@@ -228,10 +228,13 @@ impl<'de> Deserialize<'de> for YSize {
             fn visit_str<E: de::Error>(self, s: &str) -> Result<YSize, E> {
                 let t = s.trim();
                 let (size, count) = match t.rsplit_once(['x', 'X', '×']) {
-                    Some((a, b)) if !b.trim().is_empty() && b.trim().bytes().all(|c| c.is_ascii_digit()) => {
-                        let n: u32 = b.trim().parse().map_err(|_| {
-                            E::custom(format!("'{t}': the count is too large"))
-                        })?;
+                    Some((a, b))
+                        if !b.trim().is_empty() && b.trim().bytes().all(|c| c.is_ascii_digit()) =>
+                    {
+                        let n: u32 = b
+                            .trim()
+                            .parse()
+                            .map_err(|_| E::custom(format!("'{t}': the count is too large")))?;
                         (a.trim(), n)
                     }
                     _ => (t, 1),
@@ -322,9 +325,7 @@ impl<'de> Deserialize<'de> for YMaterial {
             fn visit_str<E: de::Error>(self, s: &str) -> Result<YMaterial, E> {
                 let w = s.trim().to_ascii_lowercase().replace(['_', '-'], " ");
                 match w.as_str() {
-                    "steel" | "chrome carbide" | "tungsten carbide" | "ceramic" => {
-                        Ok(YMaterial(w))
-                    }
+                    "steel" | "chrome carbide" | "tungsten carbide" | "ceramic" => Ok(YMaterial(w)),
                     _ => Err(E::custom(format!(
                         "'{}' is not a block material tiltbook knows; write steel, chrome carbide, tungsten carbide or ceramic",
                         s.trim()

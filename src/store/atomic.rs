@@ -13,7 +13,10 @@ pub fn backup_path(path: &Path) -> PathBuf {
 
 /// `path` with `suffix` added to its file name.
 pub(crate) fn sibling(path: &Path, suffix: &str) -> PathBuf {
-    let mut name = path.file_name().map(|n| n.to_os_string()).unwrap_or_default();
+    let mut name = path
+        .file_name()
+        .map(|n| n.to_os_string())
+        .unwrap_or_default();
     name.push(suffix);
     path.with_file_name(name)
 }

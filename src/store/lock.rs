@@ -127,7 +127,8 @@ impl Lock {
     pub fn acquire(traveller: &Path, who: &str) -> Result<Lock, LockFailure> {
         let path = lock_path(traveller);
         let info = LockInfo::for_me(who);
-        let text = serde_yaml::to_string(&info).map_err(|e| LockFailure::Io(io::Error::other(e)))?;
+        let text =
+            serde_yaml::to_string(&info).map_err(|e| LockFailure::Io(io::Error::other(e)))?;
         match OpenOptions::new().write(true).create_new(true).open(&path) {
             Ok(mut f) => {
                 let written = f.write_all(text.as_bytes()).and_then(|_| f.sync_all());
@@ -141,7 +142,9 @@ impl Lock {
             }
             Err(e) if e.kind() == io::ErrorKind::AlreadyExists => {
                 let holder = read_lock(&path);
-                let live = holder.as_ref().map_or(Liveness::Unknown, LockInfo::liveness);
+                let live = holder
+                    .as_ref()
+                    .map_or(Liveness::Unknown, LockInfo::liveness);
                 Err(LockFailure::Held(holder, live))
             }
             Err(e) => Err(LockFailure::Io(e)),
@@ -150,7 +153,11 @@ impl Lock {
 
     /// Take over a stale lock whose holder is `expected` (as shown to and confirmed by the
     /// person). Refused when the lock changed meanwhile or its holder is not confirmed gone.
-    pub fn take_over(traveller: &Path, who: &str, expected: &LockInfo) -> Result<Lock, LockFailure> {
+    pub fn take_over(
+        traveller: &Path,
+        who: &str,
+        expected: &LockInfo,
+    ) -> Result<Lock, LockFailure> {
         let path = lock_path(traveller);
         let now = read_lock(&path);
         match &now {

@@ -55,15 +55,14 @@ pub enum StoreError {
         "the lock on {} was taken over by {holder}; your work is still on screen: save it under another name",
         path.display()
     )]
-    LockLost {
-        path: PathBuf,
-        holder: String,
-    },
+    LockLost { path: PathBuf, holder: String },
     #[error("{} was opened read-only; open it for work to save changes", path.display())]
     ReadOnly { path: PathBuf },
     #[error("{} already exists; choose another name or open it", path.display())]
     Exists { path: PathBuf },
-    #[error("the job could not be written whole ({0}); nothing was saved, the job on screen is unchanged")]
+    #[error(
+        "the job could not be written whole ({0}); nothing was saved, the job on screen is unchanged"
+    )]
     Serialize(String),
     #[error(
         "cannot save {}: {source}; nothing was changed on disk and the job on screen is kept: free space or fix permissions, then save again",
@@ -91,8 +90,44 @@ pub fn load(path: &Path) -> Result<Loaded, StoreError> {
     })
 }
 
-/// The YAML a traveller would be saved as, checked to read back.
+/// The first number in `t` that is not finite (it would be written as something else).
+fn non_finite(t: &Traveller) -> Option<String> {
+    use crate::units::Angle;
+    let bad = |a: Angle| !a.deg().is_finite();
+    for f in &t.features {
+        if f.nominal.is_some_and(bad) {
+            return Some(format!("{}: nominal", f.id));
+        }
+        for a in &f.attempts {
+            let at = format!("{} attempt {}", f.id, a.number);
+            if a.stack
+                .iter()
+                .chain(a.stack_b.iter())
+                .any(|s| bad(s.achieved))
+            {
+                return Some(format!("{at}: achieved angle"));
+            }
+            if let Some(j) = &a.judgement {
+                let angles = [j.residual, j.deviation, j.u];
+                if !j.fit.slope.is_finite()
+                    || angles.into_iter().any(bad)
+                    || j.budget.iter().any(|b| bad(b.u))
+                {
+                    return Some(format!("{at}: fit, residual, deviation or U"));
+                }
+            }
+        }
+    }
+    None
+}
+
+/// The YAML a traveller would be saved as, checked to hold only real numbers and to read back.
 pub fn render(t: &Traveller) -> Result<String, StoreError> {
+    if let Some(what) = non_finite(t) {
+        return Err(StoreError::Serialize(format!(
+            "{what} is not a number; re-enter it"
+        )));
+    }
     let text = schema::to_yaml(t).map_err(|e| StoreError::Serialize(e.to_string()))?;
     if let Err(e) = schema::parse(&text) {
         return Err(StoreError::Serialize(format!(

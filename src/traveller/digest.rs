@@ -48,7 +48,10 @@ pub fn feature_fields(t: &Traveller, f: &Feature) -> Vec<(String, Value)> {
         ("block_set".into(), jv(&set)),
         (
             "stack".into(),
-            json!([jv(&a.and_then(|a| a.stack.as_ref())), jv(&a.and_then(|a| a.stack_b.as_ref()))]),
+            json!([
+                jv(&a.and_then(|a| a.stack.as_ref())),
+                jv(&a.and_then(|a| a.stack_b.as_ref()))
+            ]),
         ),
         ("settle".into(), jv(&a.and_then(|a| a.settle.as_ref()))),
         ("readings".into(), jv(&a.and_then(|a| a.sweep.as_ref()))),

@@ -369,6 +369,34 @@ impl Verdict {
     }
 }
 
+impl From<crate::uncertainty::Verdict> for Verdict {
+    fn from(v: crate::uncertainty::Verdict) -> Self {
+        match v {
+            crate::uncertainty::Verdict::Pass => Verdict::Pass,
+            crate::uncertainty::Verdict::Fail => Verdict::Fail,
+            crate::uncertainty::Verdict::Doubt => Verdict::Doubt,
+        }
+    }
+}
+
+impl From<DecisionRule> for crate::uncertainty::Rule {
+    fn from(r: DecisionRule) -> Self {
+        match r {
+            DecisionRule::Simple => crate::uncertainty::Rule::Simple,
+            DecisionRule::Guarded => crate::uncertainty::Rule::Guarded,
+        }
+    }
+}
+
+impl From<crate::uncertainty::Rule> for DecisionRule {
+    fn from(r: crate::uncertainty::Rule) -> Self {
+        match r {
+            crate::uncertainty::Rule::Simple => DecisionRule::Simple,
+            crate::uncertainty::Rule::Guarded => DecisionRule::Guarded,
+        }
+    }
+}
+
 impl Judgement {
     /// The verdict that stands: the lead's decision on a doubt, else the computed one.
     pub fn final_verdict(&self) -> Verdict {

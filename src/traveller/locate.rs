@@ -121,6 +121,15 @@ impl Locator {
                 flow(&mut map, &parent, rest, line_no, col);
             }
         }
+        // columns were counted in bytes; people count characters (`±`, `°` are one each)
+        let lines: Vec<&str> = text.lines().collect();
+        for pos in map.values_mut() {
+            if let Some(l) = lines.get(pos.line - 1)
+                && let Some(before) = l.get(..pos.col - 1)
+            {
+                pos.col = before.chars().count() + 1;
+            }
+        }
         Locator { map }
     }
 
@@ -202,8 +211,7 @@ fn strip_comment(v: &str) -> &str {
 
 /// One-line flow mapping or list: record the top-level entries (and nested ones) by column.
 fn flow(map: &mut HashMap<String, Pos>, path: &str, text: &str, line: usize, col0: usize) {
-    let mut chars = text.char_indices().peekable();
-    let Some((_, open)) = chars.next() else {
+    let Some(open) = text.chars().next() else {
         return;
     };
     let is_map = open == '{';
@@ -223,7 +231,7 @@ fn flow(map: &mut HashMap<String, Pos>, path: &str, text: &str, line: usize, col
             None if c == '"' || c == '\'' => quote = Some(c),
             None if c == '{' || c == '[' => depth += 1,
             None if (c == '}' || c == ']') && depth > 0 => depth -= 1,
-            None if (c == ',' && depth == 0) || ((c == '}' || c == ']') && depth == 0) => {
+            None if depth == 0 && (c == ',' || c == '}' || c == ']') => {
                 entries.push((start, i));
                 start = i + 1;
                 if c != ',' {
@@ -244,7 +252,10 @@ fn flow(map: &mut HashMap<String, Pos>, path: &str, text: &str, line: usize, col
         if is_map {
             if let Some((key, value, vc)) = split_key(piece_t) {
                 let p = join(path, &key);
-                map.entry(p.clone()).or_insert(Pos { line, col: pcol + 1 });
+                map.entry(p.clone()).or_insert(Pos {
+                    line,
+                    col: pcol + 1,
+                });
                 let v = value.trim_start();
                 let vlead = value.len() - v.len();
                 if v.starts_with('{') || v.starts_with('[') {
@@ -254,7 +265,10 @@ fn flow(map: &mut HashMap<String, Pos>, path: &str, text: &str, line: usize, col
         } else {
             let p = format!("{path}[{index}]");
             index += 1;
-            map.entry(p.clone()).or_insert(Pos { line, col: pcol + 1 });
+            map.entry(p.clone()).or_insert(Pos {
+                line,
+                col: pcol + 1,
+            });
             if piece_t.starts_with('{') || piece_t.starts_with('[') {
                 flow(map, &p, piece_t, line, pcol);
             }
@@ -299,10 +313,16 @@ features:
         assert_eq!(at("features[0].attempts[0].number"), Some((12, 9)));
         assert_eq!(at("features[0].attempts[0].stack"), Some((13, 9)));
         assert_eq!(at("features[0].attempts[0].stack.blocks"), Some((13, 17)));
-        assert_eq!(at("features[0].attempts[0].stack.blocks[1].size"), Some((13, 41)));
+        assert_eq!(
+            at("features[0].attempts[0].stack.blocks[1].size"),
+            Some((13, 41))
+        );
         assert_eq!(at("features[0].attempts[0].stack.height"), Some((13, 59)));
         assert_eq!(at("features[1].id"), Some((15, 5)));
         assert_eq!(at("features[1].tags[1]"), Some((16, 15)));
+        // columns count characters, not bytes
+        let l = Locator::new("a: { t: \"±0°05'\", b: 1 }\n");
+        assert_eq!(l.exact("a.b").map(|p| p.col), Some(19));
     }
 
     #[test]

@@ -84,8 +84,9 @@ pub fn parse(text: &str) -> Result<Loaded, LoadError> {
         return Err(LoadError::Shape {
             line: 1,
             col: 1,
-            message: "the file should be a traveller: a mapping starting with `schema: 1` and `job:`"
-                .into(),
+            message:
+                "the file should be a traveller: a mapping starting with `schema: 1` and `job:`"
+                    .into(),
         });
     };
     if !map.contains_key("job") && !map.contains_key("features") && !map.contains_key("schema") {
@@ -120,8 +121,8 @@ pub fn parse(text: &str) -> Result<Loaded, LoadError> {
         });
     }
     if version == u64::from(SCHEMA_VERSION) {
-        let traveller =
-            serde_yaml::from_str::<Traveller>(text).map_err(|e| shape_error(&e, text, &locator, true))?;
+        let traveller = serde_yaml::from_str::<Traveller>(text)
+            .map_err(|e| shape_error(&e, text, &locator, true))?;
         return Ok(Loaded {
             traveller,
             upgraded_from: None,
@@ -223,7 +224,13 @@ fn shape_error(e: &serde_yaml::Error, text: &str, locator: &Locator, own_text: b
             let key = msg
                 .strip_prefix("unknown field `")
                 .and_then(|r| r.split('`').next())
-                .map(|k| if path.is_empty() { k.to_string() } else { format!("{path}.{k}") });
+                .map(|k| {
+                    if path.is_empty() {
+                        k.to_string()
+                    } else {
+                        format!("{path}.{k}")
+                    }
+                });
             let p = key
                 .and_then(|k| locator.exact(&k))
                 .unwrap_or_else(|| locator.find(&path));

@@ -127,7 +127,10 @@ mod tests {
     #[test]
     fn refuses_a_time_without_offset() {
         for bad in ["2025-03-04T14:05:09", "yesterday", "2025-03-04"] {
-            let e = Stamp::parse(bad).err().map(|e| e.to_string()).unwrap_or_default();
+            let e = Stamp::parse(bad)
+                .err()
+                .map(|e| e.to_string())
+                .unwrap_or_default();
             assert!(e.contains("UTC offset"), "{bad}: {e}");
         }
     }

@@ -3,11 +3,15 @@
 //! other, states that can follow each other, events in time order, and signed values unchanged.
 
 mod flow;
+mod numbers;
+
+pub use numbers::decide;
+use numbers::{judgement, stack, sweep};
 
 use super::locate::{Locator, Pos};
 use super::model::*;
 use super::schema;
-use crate::units::{Angle, Length};
+use crate::units::Angle;
 use std::collections::HashMap;
 
 /// One problem found in a traveller file, with where it is.
@@ -82,7 +86,10 @@ pub fn validate(t: &Traveller, loc: &Locator) -> Vec<Problem> {
     for (i, f) in t.features.iter().enumerate() {
         let p = format!("features[{i}]");
         if f.id.trim().is_empty() {
-            out.at(&format!("{p}.id"), "the feature id is empty; give a short id, e.g. `id: F1`");
+            out.at(
+                &format!("{p}.id"),
+                "the feature id is empty; give a short id, e.g. `id: F1`",
+            );
         } else if let Some(first) = seen.get(f.id.as_str()) {
             let line = out.line_of(&format!("features[{first}].id"));
             out.at(
@@ -95,7 +102,10 @@ pub fn validate(t: &Traveller, loc: &Locator) -> Vec<Problem> {
         feature(t, f, &p, &mut out);
     }
     if t.features.is_empty() {
-        out.at("features", "the job has no features; list at least one under `features:`");
+        out.at(
+            "features",
+            "the job has no features; list at least one under `features:`",
+        );
     }
     flow::log_and_signoffs(t, &mut out);
     out.list.sort_by_key(|p| (p.line, p.col));
@@ -104,13 +114,22 @@ pub fn validate(t: &Traveller, loc: &Locator) -> Vec<Problem> {
 
 fn job(t: &Traveller, out: &mut Out) {
     if t.job.id.trim().is_empty() {
-        out.at("job.id", "the job id is empty; give the job number, e.g. `id: J-1042`");
+        out.at(
+            "job.id",
+            "the job id is empty; give the job number, e.g. `id: J-1042`",
+        );
     }
     if t.job.part.trim().is_empty() {
-        out.at("job.part", "the part is empty; name the part, e.g. `part: DS-204 dovetail slide`");
+        out.at(
+            "job.part",
+            "the part is empty; name the part, e.g. `part: DS-204 dovetail slide`",
+        );
     }
     if t.job.quantity == 0 {
-        out.at("job.quantity", "quantity is 0; give how many parts the job makes, e.g. `quantity: 4`");
+        out.at(
+            "job.quantity",
+            "quantity is 0; give how many parts the job makes, e.g. `quantity: 4`",
+        );
     }
 }
 
@@ -119,45 +138,78 @@ fn equipment(t: &Traveller, out: &mut Out) {
     for (i, f) in t.fixtures.iter().enumerate() {
         let p = format!("fixtures[{i}]");
         if ids.insert(&f.id, i).is_some() {
-            out.at(&format!("{p}.id"), format!("fixture id `{}` is listed twice; keep one snapshot per fixture", f.id));
+            out.at(
+                &format!("{p}.id"),
+                format!(
+                    "fixture id `{}` is listed twice; keep one snapshot per fixture",
+                    f.id
+                ),
+            );
         }
         if f.centre.nm() <= 0 {
-            out.at(&format!("{p}.centre"), "the centre distance must be more than zero, e.g. `centre: 5.0000 in`");
+            out.at(
+                &format!("{p}.centre"),
+                "the centre distance must be more than zero, e.g. `centre: 5.0000 in`",
+            );
         }
         for (k, d) in [("roll_pivot", f.roll_pivot), ("roll_stack", f.roll_stack)] {
             if d.nm() <= 0 {
-                out.at(&format!("{p}.{k}"), format!("{k} must be more than zero, e.g. `{k}: 0.7500 in`"));
+                out.at(
+                    &format!("{p}.{k}"),
+                    format!("{k} must be more than zero, e.g. `{k}: 0.7500 in`"),
+                );
             }
         }
         if let (Some(c), Some(d)) = (f.calibrated, f.due)
             && d < c
         {
-            out.at(&format!("{p}.due"), format!("calibration due {d} is before it was calibrated ({c}); check the dates"));
+            out.at(
+                &format!("{p}.due"),
+                format!("calibration due {d} is before it was calibrated ({c}); check the dates"),
+            );
         }
         if let Some(a) = f.max_angle
             && (a.deg() <= 0.0 || a.deg() >= 90.0)
         {
-            out.at(&format!("{p}.max_angle"), "max_angle must be between 0° and 90°, e.g. `max_angle: 60`");
+            out.at(
+                &format!("{p}.max_angle"),
+                "max_angle must be between 0° and 90°, e.g. `max_angle: 60`",
+            );
         }
     }
     let mut ids: HashMap<&str, usize> = HashMap::new();
     for (i, s) in t.block_sets.iter().enumerate() {
         let p = format!("block_sets[{i}]");
         if ids.insert(&s.id, i).is_some() {
-            out.at(&format!("{p}.id"), format!("block set id `{}` is listed twice; keep one snapshot per set", s.id));
+            out.at(
+                &format!("{p}.id"),
+                format!(
+                    "block set id `{}` is listed twice; keep one snapshot per set",
+                    s.id
+                ),
+            );
         }
         if s.grade.trim().is_empty() {
-            out.at(&format!("{p}.grade"), "the set's grade is empty; give it as on its certificate, e.g. `grade: \"0\"`");
+            out.at(
+                &format!("{p}.grade"),
+                "the set's grade is empty; give it as on its certificate, e.g. `grade: \"0\"`",
+            );
         }
         if let (Some(c), Some(d)) = (s.calibrated, s.due)
             && d < c
         {
-            out.at(&format!("{p}.due"), format!("calibration due {d} is before it was calibrated ({c}); check the dates"));
+            out.at(
+                &format!("{p}.due"),
+                format!("calibration due {d} is before it was calibrated ({c}); check the dates"),
+            );
         }
         for (k, list) in [("missing", &s.missing), ("worn", &s.worn)] {
             for (j, b) in list.iter().enumerate() {
                 if b.nm() <= 0 {
-                    out.at(&format!("{p}.{k}[{j}]"), "a block size must be more than zero, e.g. 0.1005 in");
+                    out.at(
+                        &format!("{p}.{k}[{j}]"),
+                        "a block size must be more than zero, e.g. 0.1005 in",
+                    );
                 }
             }
         }
@@ -173,7 +225,10 @@ fn angle_in_range(out: &mut Out, path: &str, a: Angle, what: &str) {
 
 fn feature(t: &Traveller, f: &Feature, p: &str, out: &mut Out) {
     if f.name.trim().is_empty() {
-        out.at(&format!("{p}.name"), "the feature name is empty; describe it, e.g. `name: dovetail flank`");
+        out.at(
+            &format!("{p}.name"),
+            "the feature name is empty; describe it, e.g. `name: dovetail flank`",
+        );
     }
     if let Some(n) = f.nominal {
         angle_in_range(out, &format!("{p}.nominal"), n, "nominal");
@@ -222,8 +277,15 @@ fn feature(t: &Traveller, f: &Feature, p: &str, out: &mut Out) {
 fn tolerance(f: &Feature, p: &str, out: &mut Out) {
     let tol = f.tolerance;
     let path = format!("{p}.tolerance");
-    if tol.plus.deg() < 0.0 || tol.minus.deg() < 0.0 || !tol.plus.deg().is_finite() || !tol.minus.deg().is_finite() {
-        out.at(&path, "tolerance sides must be amounts, e.g. `tolerance: \"+0°02'/-0°00'\"`");
+    if tol.plus.deg() < 0.0
+        || tol.minus.deg() < 0.0
+        || !tol.plus.deg().is_finite()
+        || !tol.minus.deg().is_finite()
+    {
+        out.at(
+            &path,
+            "tolerance sides must be amounts, e.g. `tolerance: \"+0°02'/-0°00'\"`",
+        );
     } else if tol.plus.deg() + tol.minus.deg() == 0.0 {
         out.at(&path, "the tolerance is zero, so nothing can pass; give the drawing's tolerance, e.g. `tolerance: \"±0°05'\"`");
     } else if tol.plus.deg() > MAX_TOLERANCE_DEG || tol.minus.deg() > MAX_TOLERANCE_DEG {
@@ -231,7 +293,14 @@ fn tolerance(f: &Feature, p: &str, out: &mut Out) {
     }
 }
 
-fn known_id<'a>(out: &mut Out, path: &str, what: &str, id: &str, known: impl Iterator<Item = &'a str>, under: &str) {
+fn known_id<'a>(
+    out: &mut Out,
+    path: &str,
+    what: &str,
+    id: &str,
+    known: impl Iterator<Item = &'a str>,
+    under: &str,
+) {
     let ids: Vec<String> = known.map(str::to_string).collect();
     if ids.iter().any(|k| k == id) {
         return;
@@ -245,11 +314,25 @@ fn known_id<'a>(out: &mut Out, path: &str, what: &str, id: &str, known: impl Ite
 
 fn attempt(t: &Traveller, f: &Feature, a: &Attempt, p: &str, k: usize, out: &mut Out) {
     if a.number as usize != k + 1 {
-        out.at(&format!("{p}.number"), format!("attempt {} is listed as number {} ; number attempts 1, 2, 3… in order", k + 1, a.number));
+        out.at(
+            &format!("{p}.number"),
+            format!(
+                "attempt {} is listed as number {} ; number attempts 1, 2, 3… in order",
+                k + 1,
+                a.number
+            ),
+        );
     }
     let fixture = a.fixture.as_ref().and_then(|c| t.fixture(&c.id));
     if let Some(c) = &a.fixture {
-        known_id(out, &format!("{p}.fixture.id"), "fixture", &c.id, t.fixtures.iter().map(|x| x.id.as_str()), "fixtures");
+        known_id(
+            out,
+            &format!("{p}.fixture.id"),
+            "fixture",
+            &c.id,
+            t.fixtures.iter().map(|x| x.id.as_str()),
+            "fixtures",
+        );
         if let Some(fx) = fixture
             && let Some(due) = fx.due
             && c.at.date() > due
@@ -259,7 +342,14 @@ fn attempt(t: &Traveller, f: &Feature, a: &Attempt, p: &str, k: usize, out: &mut
         }
     }
     if let Some(c) = &a.block_set {
-        known_id(out, &format!("{p}.block_set.id"), "block set", &c.id, t.block_sets.iter().map(|x| x.id.as_str()), "block_sets");
+        known_id(
+            out,
+            &format!("{p}.block_set.id"),
+            "block set",
+            &c.id,
+            t.block_sets.iter().map(|x| x.id.as_str()),
+            "block_sets",
+        );
         if let Some(s) = t.block_set(&c.id)
             && let Some(due) = s.due
             && c.at.date() > due
@@ -300,145 +390,4 @@ pub(crate) fn step_name(s: Step) -> String {
         .ok()
         .and_then(|v| v.as_str().map(str::to_string))
         .unwrap_or_default()
-}
-
-fn stack(s: &Stack, fx: Option<&FixtureSnapshot>, p: &str, out: &mut Out) {
-    if s.blocks.is_empty() {
-        out.at(&format!("{p}.blocks"), "the stack has no blocks; list them in wringing order under `blocks:`");
-    }
-    for (i, b) in s.blocks.iter().enumerate() {
-        if b.size.nm() <= 0 {
-            out.at(&format!("{p}.blocks[{i}].size"), "a block size must be more than zero, e.g. `size: 0.1005 in`");
-        }
-    }
-    let total = s.block_total();
-    if !s.blocks.is_empty() && total != s.height {
-        out.at(&format!("{p}.height"), format!("height {} is not the sum of the blocks ({}); correct the height or the blocks", show(s.height), show(total)));
-    }
-    angle_in_range(out, &format!("{p}.achieved"), s.achieved, "the achieved angle");
-    if let Some(fx) = fx
-        && fx.centre.nm() > 0
-    {
-        let corr = (fx.roll_pivot.nm() - fx.roll_stack.nm()) as f64 / 2.0;
-        let ratio = (s.height.nm() as f64 - corr) / fx.centre.nm() as f64;
-        if (0.0..=1.0).contains(&ratio) {
-            let want = Angle::from_rad(ratio.asin());
-            if (want.arcsec() - s.achieved.arcsec()).abs() > ANGLE_SLACK_ARCSEC {
-                out.at(&format!("{p}.achieved"), format!("achieved angle {} does not match the stack {} on fixture {} (that gives {}); recompute it from what was built", s.achieved.dms(2), show(s.height), fx.id, want.dms(2)));
-            }
-        } else {
-            out.at(&format!("{p}.height"), format!("a stack of {} cannot be set on fixture {} (centre {}); check the stack and the fixture", show(s.height), fx.id, show(fx.centre)));
-        }
-    }
-    for (i, w) in s.swaps.iter().enumerate() {
-        if w.planned == w.used {
-            out.at(&format!("{p}.swaps[{i}]"), "a swap with the same planned and used block changes nothing; remove it");
-        }
-    }
-}
-
-fn show(l: Length) -> String {
-    let s = serde_json::to_value(l).ok().and_then(|v| v.as_str().map(str::to_string));
-    s.unwrap_or_default()
-}
-
-fn sweep(s: &Sweep, p: &str, out: &mut Out) {
-    match s.mode {
-        SweepMode::Spaced => {
-            if !s.pairs.is_empty() {
-                out.at(&format!("{p}.pairs"), "position/reading pairs are given but the mode is spaced; set `mode: pairs` or list the readings under `readings:`");
-            }
-            match s.travel {
-                None => out.at(p, "a spaced sweep needs its travel, e.g. `travel: 4.0000 in`"),
-                Some(t) if t.nm() <= 0 => out.at(&format!("{p}.travel"), "the travel must be more than zero, e.g. `travel: 4.0000 in`"),
-                _ => {}
-            }
-            match s.points {
-                None => out.at(p, "a spaced sweep needs the number of readings, e.g. `points: 5`"),
-                Some(n) if n < 2 => out.at(&format!("{p}.points"), "a sweep needs at least 2 readings, e.g. `points: 5`"),
-                Some(n) if s.readings.len() > n as usize => out.at(&format!("{p}.readings"), format!("{} readings are entered but the sweep has {n} points; raise `points:` or remove readings", s.readings.len())),
-                _ => {}
-            }
-        }
-        SweepMode::Pairs => {
-            if !s.readings.is_empty() {
-                out.at(&format!("{p}.readings"), "plain readings are given but the mode is pairs; give each as `{ position: …, reading: … }` under `pairs:`, or set `mode: spaced`");
-            }
-            if s.travel.is_some() || s.points.is_some() {
-                out.at(p, "travel and points belong to a spaced sweep; remove them or set `mode: spaced`");
-            }
-            for (i, a) in s.pairs.iter().enumerate() {
-                if s.pairs[..i].iter().any(|b| b.position == a.position) {
-                    out.at(&format!("{p}.pairs[{i}].position"), format!("position {} is given twice; each reading needs its own position", show(a.position)));
-                }
-                if a.position.nm() < 0 {
-                    out.at(&format!("{p}.pairs[{i}].position"), "positions are measured from the pivot end and cannot be negative");
-                }
-            }
-        }
-    }
-}
-
-/// The verdict a rule gives for a deviation, U and tolerance.
-pub fn decide(rule: DecisionRule, dev: Angle, u: Angle, tol: crate::units::Tolerance) -> Verdict {
-    let limit = tol.limit_for(dev).arcsec();
-    let d = dev.arcsec().abs();
-    let u = u.arcsec().abs();
-    let eps = 1e-6;
-    match rule {
-        DecisionRule::Simple if d <= limit + eps => Verdict::Pass,
-        DecisionRule::Simple => Verdict::Fail,
-        DecisionRule::Guarded if d + u <= limit + eps => Verdict::Pass,
-        DecisionRule::Guarded if d - u > limit + eps => Verdict::Fail,
-        DecisionRule::Guarded => Verdict::Doubt,
-    }
-}
-
-fn judgement(f: &Feature, a: &Attempt, j: &Judgement, p: &str, out: &mut Out) {
-    match &a.sweep {
-        Some(s) if s.complete() => {}
-        _ => out.at(p, "there is a verdict but the sweep is not complete; finish the readings or remove the verdict"),
-    }
-    let slack = ANGLE_SLACK_ARCSEC;
-    if j.fit.slope.is_finite() {
-        let want = Angle::from_rad(j.fit.slope.atan());
-        if (want.arcsec() - j.residual.arcsec()).abs() > slack {
-            out.at(&format!("{p}.residual"), format!("residual {} is not atan(slope) = {}; recompute it", j.residual.arcsec_signed(2), want.arcsec_signed(2)));
-        }
-    } else {
-        out.at(&format!("{p}.fit.slope"), "the slope is not a number; re-fit the readings");
-    }
-    if f.kind != FeatureKind::Compound
-        && let (Some(s), Some(nom)) = (&a.stack, f.setting_angle())
-    {
-        let want = (s.achieved - nom) - j.residual;
-        if (want.arcsec() - j.deviation.arcsec()).abs() > slack {
-            out.at(&format!("{p}.deviation"), format!("deviation {} is not (achieved − nominal) − residual = {}; recompute it", j.deviation.arcsec_signed(2), want.arcsec_signed(2)));
-        }
-    }
-    if j.u.arcsec() < 0.0 || !j.u.arcsec().is_finite() {
-        out.at(&format!("{p}.U"), "U must be zero or more");
-    }
-    if !j.budget.is_empty() {
-        let uc = j.budget.iter().map(|b| b.u.arcsec().powi(2)).sum::<f64>().sqrt();
-        if (2.0 * uc - j.u.arcsec()).abs() > 2.0 * slack + 0.001 * j.u.arcsec() {
-            out.at(&format!("{p}.U"), format!("U {:.2}\" is not 2 × the budget's combined {:.2}\"; recompute it", j.u.arcsec(), uc));
-        }
-    }
-    let want = decide(j.rule, j.deviation, j.u, f.tolerance);
-    if want != j.verdict {
-        out.at(&format!("{p}.verdict"), format!("verdict {} does not follow from deviation {}, U {:.1}\" and tolerance {} under the {} rule (that gives {}); correct it", j.verdict.label(), j.deviation.arcsec_signed(1), j.u.arcsec(), f.tolerance, step_rule(j.rule), want.label()));
-    }
-    if let Some(d) = &j.doubt_decision
-        && j.verdict != Verdict::Doubt
-    {
-        out.at(&format!("{p}.doubt_decision"), format!("a lead's decision is recorded but the verdict is {}, not DOUBT; remove it", d.verdict.label()));
-    }
-}
-
-fn step_rule(r: DecisionRule) -> &'static str {
-    match r {
-        DecisionRule::Simple => "simple",
-        DecisionRule::Guarded => "guarded",
-    }
 }

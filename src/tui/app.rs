@@ -294,6 +294,11 @@ impl App {
         if self.help {
             return Ctx::Help;
         }
+        self.screen_ctx()
+    }
+
+    /// The context of the screen (or prompt) under the help overlay: what the help explains.
+    pub fn screen_ctx(&self) -> Ctx {
         if self.prompt.is_some() {
             return Ctx::Prompt;
         }

@@ -73,9 +73,11 @@ pub fn help_overlay(f: &mut Frame, ctx: Ctx, theme: Theme) {
         "Arrows, Enter, Esc and Tab always work; letters are shortcuts.",
     ));
     f.render_widget(
-        Paragraph::new(lines)
-            .wrap(Wrap { trim: false })
-            .block(Block::default().borders(Borders::ALL).title(" Help (Esc closes) ")),
+        Paragraph::new(lines).wrap(Wrap { trim: false }).block(
+            Block::default()
+                .borders(Borders::ALL)
+                .title(" Help (Esc closes) "),
+        ),
         area,
     );
 }
@@ -129,16 +131,12 @@ pub fn row_mark(selected: bool, theme: Theme) -> (&'static str, Style) {
     }
 }
 
-/// The "next step" banner: big, obvious, in words.
+/// The "next step" banner: big, obvious, in words (two lines at most).
 pub fn next_step(f: &mut Frame, area: Rect, text: &str, theme: Theme) {
     let t = Text::from(vec![Line::from(vec![
-        Span::styled("NEXT ▸ ", theme.next()),
+        Span::styled(" NEXT ", theme.selected()),
+        Span::raw(" "),
         Span::styled(text.to_string(), theme.next()),
     ])]);
-    f.render_widget(
-        Paragraph::new(t)
-            .wrap(Wrap { trim: true })
-            .block(Block::default().borders(Borders::TOP)),
-        area,
-    );
+    f.render_widget(Paragraph::new(t).wrap(Wrap { trim: true }), area);
 }

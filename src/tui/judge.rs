@@ -6,8 +6,8 @@ use super::rank::{geometry, grade_of};
 use super::shop_view::ShopSettings;
 use crate::sweep::{self, SweepFit};
 use crate::traveller::{
-    Attempt, BlockSetSnapshot, BudgetLine, Correction, DecisionRule, Feature, Fit,
-    FixtureSnapshot, Judgement, Stamp, Sweep, SweepMode, Verdict,
+    Attempt, BlockSetSnapshot, BudgetLine, Correction, DecisionRule, Feature, Fit, FixtureSnapshot,
+    Judgement, Stamp, Sweep, SweepMode, Verdict,
 };
 use crate::uncertainty::{self, Contribution, DEFAULT_JOINT_NM, Rule, Setup};
 use crate::units::{Angle, Length};
@@ -21,7 +21,9 @@ pub fn to_sweep(s: &Sweep) -> Result<sweep::Sweep, String> {
                 .ok_or("the travel is not given yet; type it in the travel field")?;
             sweep::Sweep::even(travel, s.readings.clone())
         }
-        SweepMode::Pairs => sweep::Sweep::at(s.pairs.iter().map(|p| (p.position, p.reading)).collect()),
+        SweepMode::Pairs => {
+            sweep::Sweep::at(s.pairs.iter().map(|p| (p.position, p.reading)).collect())
+        }
     };
     r.map_err(|e| e.to_string())
 }
@@ -82,7 +84,9 @@ pub fn judge(i: &JudgeInput, by: &str, at: Stamp) -> Result<Judgement, String> {
         sxx_nm2: sxx,
     });
     match (i.settings.indicator_repeatability, fit.angle_sd) {
-        (Some(u_r), _) => contributions.push(Contribution::IndicatorRepeatability { u_r, sxx_nm2: sxx }),
+        (Some(u_r), _) => {
+            contributions.push(Contribution::IndicatorRepeatability { u_r, sxx_nm2: sxx })
+        }
         (None, Some(sd)) => contributions.push(Contribution::SweepScatter { angle_sd: sd }),
         (None, None) => {}
     }

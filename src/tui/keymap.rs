@@ -55,8 +55,6 @@ pub enum Action {
     NewAttempt,
     /// After a fail: record the feature as nonconforming, with a note.
     Nonconforming,
-    /// Add a note to the feature.
-    Note,
 }
 
 /// A key as the keymap names it.
@@ -114,7 +112,8 @@ const LISTS: &[Ctx] = &[
     C::Help,
 ];
 
-/// The keymap, first match wins.
+/// The keymap, first match wins (one binding a line).
+#[rustfmt::skip]
 pub const KEYMAP: &[Binding] = &[
     // Enter: its words depend on the screen.
     b(&[ENTER], Action::Forward, "open feature", "Work on the selected feature", &[C::Overview], true),
@@ -136,13 +135,15 @@ pub const KEYMAP: &[Binding] = &[
     // Moving.
     b(&[Key::Code(KeyCode::Up), ch('k')], Action::Up, "select", "Move the selection up", LISTS, true),
     b(&[Key::Code(KeyCode::Down), ch('j')], Action::Down, "select", "Move the selection down", LISTS, false),
-    b(&[Key::Code(KeyCode::Up)], Action::Up, "", "Select the reading above", &[C::Readings], false),
-    b(&[Key::Code(KeyCode::Down)], Action::Down, "", "Select the reading below", &[C::Readings], false),
+    b(&[Key::Code(KeyCode::Up)], Action::Up, "", "Go to the field above", &[C::Readings], false),
+    b(&[Key::Code(KeyCode::Down)], Action::Down, "", "Go to the field below", &[C::Readings], false),
     b(&[Key::Code(KeyCode::PageUp)], Action::PageUp, "", "Page up", LISTS, false),
     b(&[Key::Code(KeyCode::PageDown)], Action::PageDown, "", "Page down", LISTS, false),
-    b(&[Key::Code(KeyCode::Left)], Action::Left, "", "Previous choice", &[C::Readings, C::Verdict], false),
-    b(&[Key::Code(KeyCode::Right)], Action::Right, "", "Next choice", &[C::Readings, C::Verdict], false),
+    b(&[Key::Code(KeyCode::Left)], Action::Left, "", "Previous choice", &[C::Verdict], false),
+    b(&[Key::Code(KeyCode::Right)], Action::Right, "", "Next choice", &[C::Verdict], false),
     b(&[Key::Code(KeyCode::Tab)], Action::NextField, "next field", "Go to the next field", &[C::Readings], true),
+    b(&[Key::Code(KeyCode::Tab)], Action::Down, "", "Next in the list", LISTS, false),
+    b(&[Key::Code(KeyCode::BackTab)], Action::Up, "", "Previous in the list", LISTS, false),
     b(&[Key::Code(KeyCode::BackTab)], Action::PrevField, "", "Go to the previous field", &[C::Readings], false),
     // Screen shortcuts.
     b(&[Key::Code(KeyCode::Char(' ')), ch('w')], Action::Tick, "wrung", "Tick the selected block as wrung (again to undo)", &[C::Stack], true),

@@ -3,7 +3,7 @@
 
 use super::shop_view::{SetView, ShopView};
 use crate::geometry::{SineFixture, plan};
-use crate::traveller::{BlockSetSnapshot, FixtureSnapshot};
+use crate::traveller::{BlockSetSnapshot, FeatureKind, FixtureKind, FixtureSnapshot};
 use crate::uncertainty::{Contribution, DEFAULT_JOINT_NM, Grade, Setup, budget};
 use crate::units::{Angle, Length, Unit};
 use jiff::civil::Date;
@@ -38,12 +38,31 @@ pub struct FixtureOption {
     pub u: Option<Angle>,
     pub warnings: Vec<String>,
     pub out_of_date: bool,
+    /// Made for this kind of feature (sine centres for tapers, a compound plate for compound
+    /// angles, a bar, plate or vise for a plain angle).
+    pub suitable: bool,
 }
 
-/// Rank the shop's fixtures for `setting`, heights rounded to `step`: reachable first, then in
-/// date, then the smallest |error| + U.
+/// Is a fixture of `fixture` kind made for a feature of `feature` kind? And if not, why.
+pub fn suits(fixture: FixtureKind, feature: FeatureKind) -> Result<(), &'static str> {
+    use FixtureKind as K;
+    match (feature, fixture) {
+        (FeatureKind::Taper, K::SineCentres) => Ok(()),
+        (FeatureKind::Taper, _) => Err("a taper is set on sine centres"),
+        (FeatureKind::Compound, K::CompoundPlate) => Ok(()),
+        (FeatureKind::Compound, _) => Err("a compound angle needs a compound sine plate"),
+        (FeatureKind::Plain, K::SineCentres) => {
+            Err("sine centres are made for work between centres")
+        }
+        (FeatureKind::Plain, _) => Ok(()),
+    }
+}
+
+/// Rank the shop's fixtures for `setting` on a feature of `kind`, heights rounded to `step`:
+/// reachable first, then made for the kind, then in date, then the smallest |error| + U.
 pub fn rank_fixtures(
     shop: &ShopView,
+    kind: FeatureKind,
     setting: Angle,
     step: Length,
     unit: Unit,
@@ -53,14 +72,14 @@ pub fn rank_fixtures(
         .fixtures
         .iter()
         .enumerate()
-        .map(|(index, f)| offer(index, f, setting, step, unit, today))
+        .map(|(index, f)| offer(index, f, kind, setting, step, unit, today))
         .collect();
     let score = |o: &FixtureOption| {
         o.error.map_or(f64::MAX, |e| e.arcsec().abs()) + o.u.map_or(0.0, |u| u.arcsec())
     };
     v.sort_by(|a, b| {
-        (!a.reachable, a.out_of_date)
-            .cmp(&(!b.reachable, b.out_of_date))
+        (!a.reachable, !a.suitable, a.out_of_date)
+            .cmp(&(!b.reachable, !b.suitable, b.out_of_date))
             .then(score(a).total_cmp(&score(b)))
     });
     v
@@ -69,6 +88,7 @@ pub fn rank_fixtures(
 fn offer(
     index: usize,
     f: &FixtureSnapshot,
+    kind: FeatureKind,
     setting: Angle,
     step: Length,
     unit: Unit,
@@ -85,7 +105,12 @@ fn offer(
         u: None,
         warnings: Vec::new(),
         out_of_date: stale,
+        suitable: true,
     };
+    if let Err(why) = suits(f.kind, kind) {
+        o.suitable = false;
+        o.warnings.push(why.to_string());
+    }
     if stale && let Some(d) = f.due {
         o.warnings
             .push(format!("calibration was due {d}: using it needs a reason"));
@@ -122,7 +147,12 @@ fn offer(
     o
 }
 
-fn estimate_u(geo: &SineFixture, setting: Angle, centre_u: Option<Length>, h: Length) -> Option<Angle> {
+fn estimate_u(
+    geo: &SineFixture,
+    setting: Angle,
+    centre_u: Option<Length>,
+    h: Length,
+) -> Option<Angle> {
     let mut c = vec![Contribution::Stack {
         blocks: vec![h],
         grade: Grade::Zero,
@@ -166,7 +196,10 @@ pub fn sizes_text(sizes: &[Length], unit: Unit) -> String {
     if sizes.is_empty() {
         return "none".into();
     }
-    let v: Vec<String> = sizes.iter().map(|s| s.number(unit, unit.places())).collect();
+    let v: Vec<String> = sizes
+        .iter()
+        .map(|s| s.number(unit, unit.places()))
+        .collect();
     format!("{} {}", v.join(", "), unit.symbol())
 }
 
@@ -188,42 +221,76 @@ pub fn set_for<'a>(shop: &'a ShopView, id: &str) -> Option<&'a SetView> {
 #[cfg(test)]
 mod tests {
     use super::*;
-    use crate::tui::shop_view::demo_shop;
+    use crate::tui::shop_view::ShopView;
+    fn demo_shop(_: Date) -> ShopView {
+        ShopView::from_shop(&crate::shop::Shop::built_in())
+    }
+
+    fn id(shop: &ShopView, o: &FixtureOption) -> String {
+        shop.fixtures[o.index].id.clone()
+    }
 
     #[test]
-    fn out_of_date_fixture_goes_last_but_stays_offered() {
-        let today = jiff::civil::date(2025, 3, 4);
+    fn out_of_date_fixtures_go_after_the_ones_in_date() {
+        // the demo shop's SB5-117 is due 2027-03-16: out of date on 2027-03-20
+        let today = jiff::civil::date(2027, 3, 20);
         let shop = demo_shop(today);
         let r = rank_fixtures(
             &shop,
+            FeatureKind::Plain,
             Angle::from_deg(30.0),
             Length::inches(0.0001),
             Unit::In,
             today,
         );
-        assert_eq!(r.len(), 3);
+        assert_eq!(r.len(), shop.fixtures.len());
         assert!(r[0].reachable && !r[0].out_of_date);
-        let stale = r.iter().find(|o| o.out_of_date).unwrap();
-        assert!(stale.warnings.iter().any(|w| w.contains("needs a reason")));
-        assert!(r.last().unwrap().out_of_date);
-        // 5 in bar at 30°: H = 2.5 in (sin 30° = 1/2), so the rounding error is tiny
-        let first = &shop.fixtures[r[0].index];
-        assert!(first.id == "SB-5" || first.id == "SB-100", "{}", first.id);
+        let bar = r.iter().position(|o| id(&shop, o) == "SB5-117").unwrap();
+        assert!(r[bar].out_of_date && r[bar].reachable);
+        assert!(r[bar].warnings.iter().any(|w| w.contains("needs a reason")));
+        let first_stale = r.iter().position(|o| o.out_of_date).unwrap();
+        assert!(
+            r[..first_stale]
+                .iter()
+                .all(|o| o.reachable && !o.out_of_date)
+        );
     }
 
     #[test]
     fn an_angle_above_the_rating_is_not_reachable() {
-        let today = jiff::civil::date(2025, 3, 4);
+        let today = jiff::civil::date(2026, 12, 1);
         let shop = demo_shop(today);
         let r = rank_fixtures(
             &shop,
+            FeatureKind::Plain,
             Angle::from_deg(70.0),
             Length::inches(0.0001),
             Unit::In,
             today,
         );
-        let bar = r.iter().find(|o| shop.fixtures[o.index].id == "SB-5").unwrap();
+        let bar = r.iter().find(|o| id(&shop, o) == "SB5-117").unwrap();
         assert!(!bar.reachable);
         assert!(bar.why_not.as_deref().unwrap_or("").contains("rated only"));
+    }
+
+    #[test]
+    fn rounding_error_is_small_at_thirty_degrees_on_five_inches() {
+        // H = 5.00002 in · sin 30° = 2.50001 in rounds to 2.5000 in; the angle error is
+        // −0.00001/(5·cos 30°) rad ≈ −0.48" (DOMAIN: dθ = dH/(C cos θ))
+        let today = jiff::civil::date(2026, 12, 1);
+        let shop = demo_shop(today);
+        let r = rank_fixtures(
+            &shop,
+            FeatureKind::Plain,
+            Angle::from_deg(30.0),
+            Length::inches(0.0001),
+            Unit::In,
+            today,
+        );
+        let bar = r.iter().find(|o| id(&shop, o) == "SB5-117").unwrap();
+        assert_eq!(bar.height, Some(Length::inches(2.5)));
+        let e = bar.error.unwrap().arcsec();
+        let expect = -(0.00001f64 / (5.00002 * 30f64.to_radians().cos())).to_degrees() * 3600.0;
+        assert!((e - expect).abs() < 0.01, "{e} vs {expect}");
     }
 }

@@ -2,9 +2,10 @@
 //! blocks the solver may use, and the shop's settings. A narrow adapter, so the screens do not
 //! depend on how the shop file is written.
 
+use crate::blocks::{BlockSet, Condition};
+use crate::shop::{Fixture, FixtureKind as ShopKind, Shop};
 use crate::traveller::{BlockSetSnapshot, DecisionRule, FixtureKind, FixtureSnapshot};
-use crate::blocks::{BlockSet, Condition, Grade, Protectors};
-use crate::units::{Length, NM_PER_INCH, NM_PER_MM, Unit};
+use crate::units::{Length, NM_PER_INCH};
 use jiff::civil::Date;
 
 /// One block set: what the traveller records when it is chosen, and the shop's set itself.
@@ -24,7 +25,11 @@ impl SetView {
             grade: set.grade.map(|g| g.to_string()).unwrap_or_default(),
             calibrated,
             due: set.calibration_due,
-            missing: [set.sizes_in(Condition::Missing), set.sizes_in(Condition::Damaged)].concat(),
+            missing: [
+                set.sizes_in(Condition::Missing),
+                set.sizes_in(Condition::Damaged),
+            ]
+            .concat(),
             worn: set.sizes_in(Condition::Worn),
             protector: set.protectors.map(|p| p.size),
         };
@@ -106,98 +111,60 @@ impl ShopView {
     }
 }
 
-/// The invented shop of the demo: two sine bars and a sine plate, one inch set with a block
-/// missing and one worn, a pair of protector blocks. No real shop or maker.
-pub fn demo_shop(today: Date) -> ShopView {
-    let inch = |v: f64| Length::inches(v);
-    let month = jiff::Span::new().months(6);
-    let due_ok = today.checked_add(month).ok();
-    let due_past = today.checked_sub(jiff::Span::new().days(12)).ok();
-    let bar5 = FixtureSnapshot {
-        id: "SB-5".into(),
-        kind: FixtureKind::SineBar,
-        description: "5 in sine bar".into(),
-        centre: Length::from_nm(5 * NM_PER_INCH + 30), // calibrated 5.0000012 in
-        nominal_centre: Some(inch(5.0)),
-        roll_pivot: inch(0.75),
-        roll_stack: inch(0.75),
-        calibrated: today.checked_sub(jiff::Span::new().months(5)).ok(),
-        due: due_ok,
-        centre_u: Some(Length::from_nm(25)),
-        max_stack: Some(inch(4.6)),
-        max_angle: Some(crate::units::Angle::from_deg(60.0)),
-    };
-    let plate10 = FixtureSnapshot {
-        id: "SP-10".into(),
-        kind: FixtureKind::SinePlate,
-        description: "10 in sine plate".into(),
-        centre: Length::from_nm(10 * NM_PER_INCH - 50),
-        nominal_centre: Some(inch(10.0)),
-        roll_pivot: inch(1.0),
-        roll_stack: inch(1.0),
-        calibrated: today.checked_sub(jiff::Span::new().months(13)).ok(),
-        due: due_past,
-        centre_u: Some(Length::from_nm(40)),
-        max_stack: Some(inch(7.5)),
-        max_angle: Some(crate::units::Angle::from_deg(60.0)),
-    };
-    let bar100 = FixtureSnapshot {
-        id: "SB-100".into(),
-        kind: FixtureKind::SineBar,
-        description: "100 mm sine bar".into(),
-        centre: Length::from_nm(100 * NM_PER_MM),
-        nominal_centre: Some(Length::from_nm(100 * NM_PER_MM)),
-        roll_pivot: Length::from_nm(20 * NM_PER_MM),
-        roll_stack: Length::from_nm(20 * NM_PER_MM),
-        calibrated: None,
-        due: due_ok,
-        centre_u: Some(Length::from_nm(30)),
-        max_stack: Some(Length::from_nm(90 * NM_PER_MM)),
-        max_angle: None,
-    };
-    let mut set = BlockSet::from_catalogue("inch-81").unwrap_or_else(|_| {
-        BlockSet::from_sizes("inch-81", Unit::In, &[(inch(1.0), 1)]).unwrap_or_else(|_| empty_set())
-    });
-    set.id = "GB-81".into();
-    // one block gone from the box, one worn: the demo shows both
-    let _ = set.mark(tenths(1007), Condition::Missing);
-    let _ = set.mark(tenths(1300), Condition::Worn);
-    set.protectors = Some(Protectors { size: inch(0.05) });
-    set.grade = Some(Grade::Asme0);
-    set.calibration_due = due_ok;
-    set.material = Some("steel".into());
-    let set = SetView::new(
-        set,
-        "81-piece inch set, steel",
-        today.checked_sub(jiff::Span::new().months(3)).ok(),
-    );
-    ShopView {
-        fixtures: vec![bar5, plate10, bar100],
-        sets: vec![set],
-        settings: ShopSettings {
-            rules: vec![
-                "Cell rule: the stack is built on the granite plate, never on the machine table."
-                    .into(),
-            ],
-            ..ShopSettings::default()
-        },
+impl ShopView {
+    /// The screens' view of a shop loaded from its file (or the built-in demo shop).
+    pub fn from_shop(shop: &Shop) -> ShopView {
+        let fixtures = shop.fixtures.iter().map(snapshot).collect();
+        let sets = shop
+            .block_sets
+            .iter()
+            .map(|s| {
+                let mut words: Vec<String> = Vec::new();
+                if let Some(c) = s
+                    .catalogue
+                    .as_deref()
+                    .and_then(crate::blocks::catalogue::set)
+                {
+                    words.push(c.name.to_string());
+                }
+                if let Some(m) = &s.material {
+                    words.push(m.clone());
+                }
+                SetView::new(s.clone(), &words.join(", "), None)
+            })
+            .collect();
+        ShopView {
+            fixtures,
+            sets,
+            settings: ShopSettings::default(),
+        }
     }
 }
 
-fn tenths(v: i64) -> Length {
-    Length::from_nm(NM_PER_INCH / 10_000 * v)
-}
-
-fn empty_set() -> BlockSet {
-    BlockSet {
-        id: "GB-81".into(),
-        catalogue: None,
-        unit: Unit::In,
-        blocks: Vec::new(),
-        protectors: None,
-        grade: None,
-        calibration_due: None,
-        material: None,
-        note: None,
+/// The traveller's record of a shop fixture.
+pub fn snapshot(f: &Fixture) -> FixtureSnapshot {
+    let kind = match f.kind {
+        ShopKind::SineBar => FixtureKind::SineBar,
+        ShopKind::SinePlate => FixtureKind::SinePlate,
+        ShopKind::SineVise => FixtureKind::SineVise,
+        ShopKind::SineCentres => FixtureKind::SineCentres,
+        ShopKind::CompoundSinePlate => FixtureKind::CompoundPlate,
+    };
+    FixtureSnapshot {
+        id: f.id.clone(),
+        kind,
+        description: match &f.note {
+            Some(n) => format!("{}; {n}", f.kind.words()),
+            None => f.kind.words().to_string(),
+        },
+        centre: f.center,
+        nominal_centre: None,
+        roll_pivot: f.pivot_roll,
+        roll_stack: f.raised_roll,
+        calibrated: Some(f.calibrated),
+        due: f.calibration_due,
+        centre_u: Some(f.center_uncertainty),
+        max_stack: Some(f.largest_stack),
+        max_angle: Some(f.angle_range.1),
     }
 }

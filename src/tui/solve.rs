@@ -39,7 +39,10 @@ pub fn solve(set: &SetView, height: Length, protectors: bool) -> Result<Vec<Stac
 #[cfg(test)]
 mod tests {
     use super::*;
-    use crate::tui::shop_view::demo_shop;
+    use crate::tui::shop_view::ShopView;
+    fn demo_shop(_: jiff::civil::Date) -> ShopView {
+        ShopView::from_shop(&crate::shop::Shop::built_in())
+    }
 
     #[test]
     fn two_and_a_half_inches_from_the_demo_set() {
@@ -52,7 +55,10 @@ mod tests {
         assert_eq!(s.len(), 2);
         let with = solve(set, Length::inches(2.5), true).unwrap();
         assert!(with[0].protector && with[with.len() - 1].protector);
-        assert_eq!(with.iter().map(|b| b.size).sum::<Length>(), Length::inches(2.5));
+        assert_eq!(
+            with.iter().map(|b| b.size).sum::<Length>(),
+            Length::inches(2.5)
+        );
     }
 
     #[test]

@@ -4,8 +4,8 @@
 use super::app::{App, Effect, Level, Msg, Prompt, PromptKind, Screen, prev_step};
 use super::chrome::{MIN_H, MIN_W};
 use super::field::Field;
+use super::flow::{choose, readings, settle, stack, verdict};
 use super::keymap::{Action, Input};
-use super::{flow_build, flow_check};
 use crate::traveller::{EventKind, FeatureState, Stamp, Step};
 
 /// Apply one message; return the work the effect runner must do.
@@ -15,12 +15,12 @@ pub fn update(app: &mut App, msg: Msg) -> Vec<Effect> {
             app.size = (w, h);
             Vec::new()
         }
-        Msg::Tick(secs) => flow_check::tick(app, secs),
+        Msg::Tick(secs) => settle::tick(app, secs),
         Msg::Solved {
             feature,
             attempt,
             result,
-        } => flow_build::solved(app, feature, attempt, result),
+        } => stack::solved(app, feature, attempt, result),
         Msg::Saved => {
             app.unsaved = false;
             Vec::new()
@@ -53,6 +53,10 @@ fn key(app: &mut App, input: Input) -> Vec<Effect> {
             return quit(app);
         }
         return Vec::new();
+    }
+    if let Input::Act(Action::Forward | Action::Back) = input {
+        // a new step: the last message has been seen
+        app.status = None;
     }
     match input {
         Input::Act(Action::Quit) => return quit(app),
@@ -113,12 +117,10 @@ fn name_key(app: &mut App, input: Input) -> Vec<Effect> {
                 return open_feature(app, feature);
             }
         }
-        Input::Act(Action::Back) => {
-            app.say(
-                Level::Warn,
-                "a name is needed to record who did the work; type it, or q to quit",
-            )
-        }
+        Input::Act(Action::Back) => app.say(
+            Level::Warn,
+            "a name is needed to record who did the work; type it, or q to quit",
+        ),
         _ => {}
     }
     Vec::new()
@@ -190,20 +192,20 @@ pub fn enter_step(app: &mut App, index: usize, step: Step) -> Vec<Effect> {
     };
     match step {
         Step::Fixture => {
-            flow_build::enter_fixture(app);
+            choose::enter_fixture(app);
             Vec::new()
         }
         Step::BlockSet => {
-            flow_build::enter_set(app);
+            choose::enter_set(app);
             Vec::new()
         }
-        Step::Stack => flow_build::enter_stack(app),
+        Step::Stack => stack::enter_stack(app),
         Step::Settle => {
-            flow_check::enter_settle(app);
+            settle::enter_settle(app);
             Vec::new()
         }
         Step::Sweep => {
-            flow_check::enter_readings(app);
+            readings::enter_readings(app);
             Vec::new()
         }
         Step::Verdict => {
@@ -231,14 +233,14 @@ fn flow_key(app: &mut App, feature: usize, step: Step, input: Input) -> Vec<Effe
         };
     }
     match step {
-        Step::Fixture => flow_build::fixture_key(app, input),
-        Step::BlockSet => flow_build::set_key(app, input),
-        Step::Stack => flow_build::stack_key(app, input),
-        Step::Safety => flow_check::safety_key(app, input),
-        Step::Settle => flow_check::settle_key(app, input),
-        Step::Sweep => flow_check::readings_key(app, input),
-        Step::Verdict => flow_check::verdict_key(app, input),
-        Step::Sign | Step::Done => flow_check::sign_key(app, input),
+        Step::Fixture => choose::fixture_key(app, input),
+        Step::BlockSet => choose::set_key(app, input),
+        Step::Stack => stack::stack_key(app, input),
+        Step::Safety => settle::safety_key(app, input),
+        Step::Settle => settle::settle_key(app, input),
+        Step::Sweep => readings::readings_key(app, input),
+        Step::Verdict => verdict::verdict_key(app, input),
+        Step::Sign | Step::Done => verdict::sign_key(app, input),
     }
 }
 
@@ -272,15 +274,15 @@ fn prompt_key(app: &mut App, input: Input) -> Vec<Effect> {
             let text = p.field.as_ref().map(|f| f.trimmed().to_string());
             let res = match &p.kind {
                 PromptKind::FixtureReason(i) => {
-                    flow_build::answer_fixture_reason(app, *i, text.unwrap_or_default())
+                    choose::answer_fixture_reason(app, *i, text.unwrap_or_default())
                 }
                 PromptKind::SetReason(i) => {
-                    flow_build::answer_set_reason(app, *i, text.unwrap_or_default())
+                    choose::answer_set_reason(app, *i, text.unwrap_or_default())
                 }
-                PromptKind::Swap(i) => flow_build::answer_swap(app, *i, text.unwrap_or_default()),
-                PromptKind::Redo(r) => Ok(flow_build::answer_redo(app, *r, p.carry.clone())),
+                PromptKind::Swap(i) => stack::answer_swap(app, *i, text.unwrap_or_default()),
+                PromptKind::Redo(r) => Ok(choose::answer_redo(app, *r, p.carry.clone())),
                 PromptKind::Nonconforming => {
-                    flow_check::answer_nonconforming(app, text.unwrap_or_default())
+                    verdict::answer_nonconforming(app, text.unwrap_or_default())
                 }
             };
             match res {

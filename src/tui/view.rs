@@ -47,7 +47,7 @@ pub fn draw(f: &mut Frame, app: &App) {
         screens::prompt::draw(f, p, theme);
     }
     if app.help {
-        chrome::help_overlay(f, app.ctx(), theme);
+        chrome::help_overlay(f, app.screen_ctx(), theme);
     }
 }
 
@@ -59,12 +59,12 @@ fn hidden_keys(app: &App) -> Vec<Action> {
             .attempt()
             .and_then(|a| a.judgement.as_ref())
             .map(|j| j.verdict);
-        let list = super::flow_check::choices(v);
+        let list = super::flow::verdict::choices(v);
         if step == Step::Verdict {
-            if !list.contains(&super::flow_check::After::NewAttempt) {
+            if !list.contains(&super::flow::verdict::After::NewAttempt) {
                 hide.push(Action::NewAttempt);
             }
-            if !list.contains(&super::flow_check::After::Nonconforming) {
+            if !list.contains(&super::flow::verdict::After::Nonconforming) {
                 hide.push(Action::Nonconforming);
             }
         }
@@ -112,7 +112,10 @@ fn status(f: &mut Frame, fr: &Frame5, app: &App) {
         Level::Error => ("✗ ", t.bad()),
     };
     f.render_widget(
-        Paragraph::new(Line::from(vec![Span::styled(tag, style), Span::styled(s.text.clone(), style)])),
+        Paragraph::new(Line::from(vec![
+            Span::styled(tag, style),
+            Span::styled(s.text.clone(), style),
+        ])),
         fr.status,
     );
 }
@@ -174,6 +177,15 @@ pub fn nominal_text(f: &Feature) -> String {
 
 /// The next action, in words, for the screen shown.
 pub fn next_words(app: &App) -> String {
+    if let Some(p) = &app.prompt {
+        return match p.field {
+            Some(_) => "type the answer and press Enter; Esc cancels".into(),
+            None => "Enter to go ahead, Esc to keep things as they are".into(),
+        };
+    }
+    if app.help {
+        return "Esc closes the help".into();
+    }
     match app.screen {
         Screen::Name => "type your name or initials and press Enter".into(),
         Screen::Overview => screens::overview::next_for_job(app),
@@ -185,9 +197,7 @@ pub fn next_words(app: &App) -> String {
                 Step::Fixture => "choose the fixture (↑↓), then press Enter".into(),
                 Step::BlockSet => "choose the block set (↑↓), then press Enter".into(),
                 Step::Stack => screens::stack::next(app),
-                Step::Safety => {
-                    "clamp the work, read the cautions, then press Enter".into()
-                }
+                Step::Safety => "clamp the work, read the cautions, then press Enter".into(),
                 Step::Settle => screens::setup::next(app),
                 Step::Sweep => screens::readings::next(app),
                 Step::Verdict => screens::verdict::next(app),

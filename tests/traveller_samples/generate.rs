@@ -13,6 +13,10 @@ use tiltbook::traveller::validate::decide;
 use tiltbook::traveller::*;
 use tiltbook::units::{Angle, Length, Unit};
 
+#[path = "compute.rs"]
+mod compute;
+use compute::{angle_for, budget, expanded, fit};
+
 fn len(s: &str) -> Length {
     Length::parse(s, Unit::In).unwrap()
 }
@@ -25,7 +29,10 @@ impl Clock {
     }
     /// Move on `min` minutes and give the time.
     fn tick(&mut self, min: i64) -> Stamp {
-        self.0 = self.0.checked_add(jiff::SignedDuration::from_mins(min)).unwrap();
+        self.0 = self
+            .0
+            .checked_add(jiff::SignedDuration::from_mins(min))
+            .unwrap();
         Stamp::from_parts(self.0, self.1)
     }
     fn now(&self) -> Stamp {
@@ -95,87 +102,6 @@ fn block_set() -> BlockSetSnapshot {
     }
 }
 
-/// θ = asin((H − (d_p − d_r)/2)/C).
-fn angle_for(fx: &FixtureSnapshot, h: Length) -> Angle {
-    let corr = (fx.roll_pivot.nm() - fx.roll_stack.nm()) as f64 / 2.0;
-    Angle::from_rad(((h.nm() as f64 - corr) / fx.centre.nm() as f64).asin())
-}
-
-/// Least squares r = a + m·x; straightness = max − min of r − (a + m·x).
-fn fit(points: &[(Length, Length)]) -> Fit {
-    let n = points.len() as f64;
-    let xs: Vec<f64> = points.iter().map(|p| p.0.as_in()).collect();
-    let rs: Vec<f64> = points.iter().map(|p| p.1.as_in()).collect();
-    let mx = xs.iter().sum::<f64>() / n;
-    let mr = rs.iter().sum::<f64>() / n;
-    let sxx: f64 = xs.iter().map(|x| (x - mx).powi(2)).sum();
-    let sxr: f64 = xs.iter().zip(&rs).map(|(x, r)| (x - mx) * (r - mr)).sum();
-    let m = sxr / sxx;
-    let a = mr - m * mx;
-    let res: Vec<f64> = xs.iter().zip(&rs).map(|(x, r)| r - (a + m * x)).collect();
-    let hi = res.iter().cloned().fold(f64::MIN, f64::max);
-    let lo = res.iter().cloned().fold(f64::MAX, f64::min);
-    Fit {
-        slope: m,
-        intercept: Length::from_f64(a, Unit::In),
-        straightness: Length::from_f64(hi - lo, Unit::In),
-    }
-}
-
-/// Grade 0 limit deviation t_e in µm by nominal length (ISO 3650 table in standards.md).
-fn grade0_te_um(size: Length) -> f64 {
-    match size.as_mm() {
-        x if x <= 10.0 => 0.12,
-        x if x <= 25.0 => 0.14,
-        x if x <= 50.0 => 0.20,
-        x if x <= 75.0 => 0.25,
-        _ => 0.30,
-    }
-}
-
-fn budget(fx: &FixtureSnapshot, s: &Stack, sw: &Sweep) -> Vec<BudgetLine> {
-    let c = fx.centre.as_in();
-    let th = s.achieved.rad();
-    let per_h = 1.0 / (c * th.cos()); // rad per inch of stack
-    let um = 1.0 / 25_400.0; // inches per µm
-    let blocks: f64 = s
-        .blocks
-        .iter()
-        .map(|b| (grade0_te_um(b.size) * um / 3f64.sqrt()).powi(2))
-        .sum::<f64>()
-        + (s.blocks.len().saturating_sub(1) as f64) * (0.025 * um).powi(2);
-    let u_c = fx.centre_u.map_or(0.0, |u| u.as_in()) * th.tan() / c;
-    let temp = 11.5e-6 * s.height.as_in() * 1.0 / 3f64.sqrt() * per_h;
-    let pts = sw.points_xy();
-    let n = pts.len() as f64;
-    let mx = pts.iter().map(|p| p.0.as_in()).sum::<f64>() / n;
-    let sxx: f64 = pts.iter().map(|p| (p.0.as_in() - mx).powi(2)).sum();
-    let u_r = ((0.0001f64 / 12f64.sqrt()).powi(2) + 0.00005f64.powi(2)).sqrt();
-    let line = |source: &str, rad: f64, note: &str| BudgetLine {
-        source: source.into(),
-        u: Angle::from_arcsec((Angle::from_rad(rad).arcsec() * 1000.0).round() / 1000.0),
-        note: note.into(),
-    };
-    vec![
-        line(
-            "gauge blocks",
-            blocks.sqrt() * per_h,
-            &format!("grade 0, {} blocks, t_e/√3 each, 0.025 µm per joint", s.blocks.len()),
-        ),
-        line("centre distance", u_c, "calibration u, sensitivity tan θ / C"),
-        line("temperature", temp, "stack to fixture within 1 K, rectangular"),
-        line(
-            "indicator",
-            u_r / sxx.sqrt(),
-            "0.0001 in division /√12 and 0.00005 in repeatability, over the travel",
-        ),
-    ]
-}
-
-fn expanded(b: &[BudgetLine]) -> Angle {
-    Angle::from_arcsec(2.0 * b.iter().map(|l| l.u.arcsec().powi(2)).sum::<f64>().sqrt())
-}
-
 struct Shift<'a> {
     t: &'a mut Traveller,
     clock: &'a mut Clock,
@@ -192,30 +118,76 @@ impl Shift<'_> {
         self.t.feature_mut(f).unwrap().state = s;
     }
     fn attempt(&mut self, f: &str) -> &mut Attempt {
-        self.t.feature_mut(f).unwrap().current_attempt_mut().unwrap()
+        self.t
+            .feature_mut(f)
+            .unwrap()
+            .current_attempt_mut()
+            .unwrap()
     }
 
     /// Start an attempt and go as far as the settled stack.
-    fn setup(&mut self, f: &str, fx: &str, blocks: &[&str], swap: Option<(usize, &str, &str)>, reason: &str) -> u32 {
+    fn setup(
+        &mut self,
+        f: &str,
+        fx: &str,
+        blocks: &[&str],
+        swap: Option<(usize, &str, &str)>,
+        reason: &str,
+    ) -> u32 {
         let at = self.clock.tick(4);
-        let n = self.t.feature_mut(f).unwrap().start_attempt(self.by, at).number;
-        self.t.log_at(at, self.by, EventKind::AttemptStarted, Some(f), Some(n), "");
+        let n = self
+            .t
+            .feature_mut(f)
+            .unwrap()
+            .start_attempt(self.by, at)
+            .number;
+        self.t
+            .log_at(at, self.by, EventKind::AttemptStarted, Some(f), Some(n), "");
         let at = self.log(3, EventKind::FixtureChosen, f, Some(n), fx);
-        self.attempt(f).fixture = Some(Choice { id: fx.into(), reason: reason.into(), by: self.by.into(), at });
+        self.attempt(f).fixture = Some(Choice {
+            id: fx.into(),
+            reason: reason.into(),
+            by: self.by.into(),
+            at,
+        });
         self.attempt(f).step = Step::BlockSet;
         self.state(f, FeatureState::FixtureChosen);
         let at = self.log(1, EventKind::SetChosen, f, Some(n), "GB-81");
-        self.attempt(f).block_set = Some(Choice { id: "GB-81".into(), reason: String::new(), by: self.by.into(), at });
+        self.attempt(f).block_set = Some(Choice {
+            id: "GB-81".into(),
+            reason: String::new(),
+            by: self.by.into(),
+            at,
+        });
         self.attempt(f).step = Step::Stack;
         self.state(f, FeatureState::SetChosen);
-        let mut bl: Vec<StackBlock> = blocks.iter().map(|b| StackBlock { size: len(b), protector: false, wrung: false }).collect();
+        let mut bl: Vec<StackBlock> = blocks
+            .iter()
+            .map(|b| StackBlock {
+                size: len(b),
+                protector: false,
+                wrung: false,
+            })
+            .collect();
         let mut swaps = Vec::new();
         for (i, b) in bl.iter_mut().enumerate() {
             if let Some((k, planned, used)) = swap
                 && k == i
             {
-                let at = self.log(1, EventKind::BlockSwapped, f, Some(n), &format!("{planned} in for {used} in: burr on the {planned}"));
-                swaps.push(Swap { planned: len(planned), used: len(used), reason: format!("burr on the {planned}"), by: self.by.into(), at });
+                let at = self.log(
+                    1,
+                    EventKind::BlockSwapped,
+                    f,
+                    Some(n),
+                    &format!("{planned} in for {used} in: burr on the {planned}"),
+                );
+                swaps.push(Swap {
+                    planned: len(planned),
+                    used: len(used),
+                    reason: format!("burr on the {planned}"),
+                    by: self.by.into(),
+                    at,
+                });
                 b.size = len(used);
             }
             b.wrung = true;
@@ -226,14 +198,38 @@ impl Shift<'_> {
         let fxs = self.t.fixture(fx).unwrap().clone();
         let achieved = angle_for(&fxs, height);
         let at = self.log(1, EventKind::StackBuilt, f, Some(n), &height.show(Unit::In));
-        self.attempt(f).stack = Some(Stack { blocks: bl, height, achieved, swaps, built: Some(Mark { by: self.by.into(), at }) });
+        self.attempt(f).stack = Some(Stack {
+            blocks: bl,
+            height,
+            achieved,
+            swaps,
+            built: Some(Mark {
+                by: self.by.into(),
+                at,
+            }),
+        });
         self.attempt(f).step = Step::Safety;
         self.state(f, FeatureState::StackBuilt);
-        let at = self.log(1, EventKind::SafetyConfirmed, f, Some(n), "work clamped to the stop; eye protection");
-        self.attempt(f).safety = Some(Mark { by: self.by.into(), at });
+        let at = self.log(
+            1,
+            EventKind::SafetyConfirmed,
+            f,
+            Some(n),
+            "work clamped to the stop; eye protection",
+        );
+        self.attempt(f).safety = Some(Mark {
+            by: self.by.into(),
+            at,
+        });
         self.attempt(f).step = Step::Settle;
         let at = self.log(10, EventKind::Settled, f, Some(n), "10 min");
-        self.attempt(f).settle = Some(Settle { done: true, minutes: Some(10), reason: String::new(), by: self.by.into(), at });
+        self.attempt(f).settle = Some(Settle {
+            done: true,
+            minutes: Some(10),
+            reason: String::new(),
+            by: self.by.into(),
+            at,
+        });
         self.attempt(f).step = Step::Sweep;
         self.state(f, FeatureState::Settled);
         n
@@ -241,11 +237,27 @@ impl Shift<'_> {
 
     fn second_stack(&mut self, f: &str, blocks: &[&str]) {
         let fxs = self.t.fixture("CP-5").unwrap().clone();
-        let bl: Vec<StackBlock> = blocks.iter().map(|b| StackBlock { size: len(b), protector: false, wrung: true }).collect();
+        let bl: Vec<StackBlock> = blocks
+            .iter()
+            .map(|b| StackBlock {
+                size: len(b),
+                protector: false,
+                wrung: true,
+            })
+            .collect();
         let height: Length = bl.iter().map(|b| b.size).sum();
         let achieved = angle_for(&fxs, height);
         let at = self.clock.now();
-        self.attempt(f).stack_b = Some(Stack { blocks: bl, height, achieved, swaps: Vec::new(), built: Some(Mark { by: self.by.into(), at }) });
+        self.attempt(f).stack_b = Some(Stack {
+            blocks: bl,
+            height,
+            achieved,
+            swaps: Vec::new(),
+            built: Some(Mark {
+                by: self.by.into(),
+                at,
+            }),
+        });
     }
 
     /// Enter readings (spaced over 4 in, 5 points); `upto` of them.
@@ -275,7 +287,11 @@ impl Shift<'_> {
     fn judge(&mut self, f: &str, n: u32) -> Verdict {
         let feat = self.t.feature(f).unwrap().clone();
         let a = feat.current_attempt().unwrap();
-        let fx = self.t.fixture(&a.fixture.as_ref().unwrap().id).unwrap().clone();
+        let fx = self
+            .t
+            .fixture(&a.fixture.as_ref().unwrap().id)
+            .unwrap()
+            .clone();
         let s = a.stack.as_ref().unwrap();
         let sw = a.sweep.as_ref().unwrap();
         let fit = fit(&sw.points_xy());
@@ -288,20 +304,41 @@ impl Shift<'_> {
             let th = s.achieved.rad();
             let dh = fx.centre.as_in() * ((th - residual.rad()).sin() - th.sin());
             let delta = Length::from_f64((dh * 10_000.0).round() / 10_000.0, Unit::In);
-            Correction { delta, height: s.height + delta }
+            Correction {
+                delta,
+                height: s.height + delta,
+            }
         });
         let at = self.log(3, EventKind::AttemptJudged, f, Some(n), verdict.label());
         let by = self.by;
         let att = self.attempt(f);
-        att.judgement = Some(Judgement { fit, residual, deviation, u, budget: b, rule: DecisionRule::Guarded, verdict, correction, doubt_decision: None, by: by.into(), at });
-        att.step = if verdict == Verdict::Fail { Step::Done } else { Step::Sign };
+        att.judgement = Some(Judgement {
+            fit,
+            residual,
+            deviation,
+            u,
+            budget: b,
+            rule: DecisionRule::Guarded,
+            verdict,
+            correction,
+            doubt_decision: None,
+            by: by.into(),
+            at,
+        });
+        att.step = if verdict == Verdict::Fail {
+            Step::Done
+        } else {
+            Step::Sign
+        };
         self.state(f, FeatureState::Judged);
         verdict
     }
 
     fn sign(&mut self, f: &str) {
         let at = self.clock.tick(2);
-        self.t.sign(self.by, Role::Operator, Scope::Feature, Some(f), at).unwrap();
+        self.t
+            .sign(self.by, Role::Operator, Scope::Feature, Some(f), at)
+            .unwrap();
         self.attempt(f).step = Step::Done;
     }
 }
@@ -311,16 +348,33 @@ fn first_shift(t: &mut Traveller, clock: &mut Clock) {
     t.put_fixture(fixtures()[1].clone());
     t.put_block_set(block_set());
     let at = clock.tick(0);
-    t.log_at(at, "KM", EventKind::Opened, None, None, "from plan ds-204-plan.yaml");
+    t.log_at(
+        at,
+        "KM",
+        EventKind::Opened,
+        None,
+        None,
+        "from plan ds-204-plan.yaml",
+    );
     let mut s = Shift { t, clock, by: "KM" };
     // F1: 5 in bar, 30° → H = 2.5000 in (2 + 0.5)
     let n = s.setup("F1", "SB-5A", &["2in", "0.5in"], None, "");
-    s.sweep("F1", n, &["0.0000", "0.0001", "0.0001", "0.0002", "0.0002"], 5);
+    s.sweep(
+        "F1",
+        n,
+        &["0.0000", "0.0001", "0.0001", "0.0002", "0.0002"],
+        5,
+    );
     assert_eq!(s.judge("F1", n), Verdict::Pass);
     s.sign("F1");
     // F2: taper 1:20 on 10 in centres → H = 0.2499 in (0.1009 + 0.149); calibration overdue
     let n = s.setup("F2", "SC-10", &["0.1009in", "0.149in"], None, "10 in centres overdue (due 2025-02-20, booked for next week); only centres free; zero checked against SB-5A at 1°26'");
-    s.sweep("F2", n, &["0.0000", "-0.0001", "-0.0001", "-0.0002", "-0.0003"], 3);
+    s.sweep(
+        "F2",
+        n,
+        &["0.0000", "-0.0001", "-0.0001", "-0.0002", "-0.0003"],
+        3,
+    );
     let at = s.clock.tick(6);
     s.t.handovers.push(Handover {
         text: "F1 done and signed. F2 (taper) is on the 10 in centres: stack 0.1009 + 0.149 wrung and settled, 3 of 5 readings in; carry on from the 2 in mark. Centres calibration is overdue, reason recorded. F3–F5 not started.".into(),
@@ -328,40 +382,81 @@ fn first_shift(t: &mut Traveller, clock: &mut Clock) {
         at,
         read_by: Vec::new(),
     });
-    s.t.log_at(at, "KM", EventKind::Handover, None, None, "end of first shift");
+    s.t.log_at(
+        at,
+        "KM",
+        EventKind::Handover,
+        None,
+        None,
+        "end of first shift",
+    );
 }
 
 fn second_shift(t: &mut Traveller, clock: &mut Clock) {
     let at = clock.tick(30);
     t.log_at(at, "TJ", EventKind::Opened, None, None, "");
     let at = clock.tick(1);
-    t.handovers[0].read_by.push(Mark { by: "TJ".into(), at });
+    t.handovers[0].read_by.push(Mark {
+        by: "TJ".into(),
+        at,
+    });
     t.log_at(at, "TJ", EventKind::HandoverRead, None, None, "");
     t.put_fixture(fixtures()[2].clone());
     let mut s = Shift { t, clock, by: "TJ" };
-    s.sweep("F2", 1, &["0.0000", "-0.0001", "-0.0001", "-0.0002", "-0.0003"], 5);
+    s.sweep(
+        "F2",
+        1,
+        &["0.0000", "-0.0001", "-0.0001", "-0.0002", "-0.0003"],
+        5,
+    );
     assert_eq!(s.judge("F2", 1), Verdict::Pass);
     s.sign("F2");
     // F3: 15°30' → H = 1.3362 in. Attempt 1: the 0.163 was picked for the 0.136 by mistake, the
     // surface rises 0.0019 in over 4 in: fail. Attempt 2: stack rebuilt as planned, pass.
     let blocks = ["0.1002in", "0.136in", "0.1in", "1in"];
     let n = s.setup("F3", "SB-5A", &blocks, None, "");
-    s.sweep("F3", n, &["0.0000", "0.0056", "0.0112", "0.0168", "0.0224"], 5);
+    s.sweep(
+        "F3",
+        n,
+        &["0.0000", "0.0056", "0.0112", "0.0168", "0.0224"],
+        5,
+    );
     assert_eq!(s.judge("F3", n), Verdict::Fail);
     s.attempt("F3").note = "0.163 block found in the stack where the 0.136 belongs; stack rebuilt, correction not applied".into();
     let n = s.setup("F3", "SB-5A", &blocks, None, "");
-    s.sweep("F3", n, &["0.0000", "0.0000", "0.0001", "0.0001", "0.0001"], 5);
+    s.sweep(
+        "F3",
+        n,
+        &["0.0000", "0.0000", "0.0001", "0.0001", "0.0001"],
+        5,
+    );
     assert_eq!(s.judge("F3", n), Verdict::Pass);
     s.sign("F3");
     // F4: compound A 30°, B 20°, near plate A → plates 30° (2 + 0.5 = 2.5000) and 17°29'43"
     // (0.1001 + 0.103 + 0.3 + 1 = 1.5031); the surface rises 0.0116 in over 4 in: doubt band.
     let n = s.setup("F4", "CP-5", &["2in", "0.5in"], None, "");
     s.second_stack("F4", &["0.1001in", "0.103in", "0.3in", "1in"]);
-    s.sweep("F4", n, &["0.0000", "0.0029", "0.0059", "0.0087", "0.0116"], 5);
+    s.sweep(
+        "F4",
+        n,
+        &["0.0000", "0.0029", "0.0059", "0.0087", "0.0116"],
+        5,
+    );
     assert_eq!(s.judge("F4", n), Verdict::Doubt);
     // F5: 5°43' → H = 0.4980 in (0.148 + 0.35); the 0.148 has a burr, the 0.149 is used
-    let n = s.setup("F5", "SB-5A", &["0.148in", "0.35in"], Some((0, "0.148", "0.149")), "");
-    s.sweep("F5", n, &["0.0000", "-0.0008", "0.0003", "-0.0007", "0.0001"], 5);
+    let n = s.setup(
+        "F5",
+        "SB-5A",
+        &["0.148in", "0.35in"],
+        Some((0, "0.148", "0.149")),
+        "",
+    );
+    s.sweep(
+        "F5",
+        n,
+        &["0.0000", "-0.0008", "0.0003", "-0.0007", "0.0001"],
+        5,
+    );
     assert_eq!(s.judge("F5", n), Verdict::Pass);
     s.sign("F5");
 }
@@ -379,14 +474,29 @@ fn lead_review(t: &mut Traveller, clock: &mut Clock) {
             at,
         });
     }
-    t.log_at(at, "LV", EventKind::DoubtDecided, Some("F4"), Some(1), "accepted: PASS");
+    t.log_at(
+        at,
+        "LV",
+        EventKind::DoubtDecided,
+        Some("F4"),
+        Some(1),
+        "accepted: PASS",
+    );
     let at = clock.tick(2);
-    t.sign("TJ", Role::Operator, Scope::Feature, Some("F4"), at).unwrap();
+    t.sign("TJ", Role::Operator, Scope::Feature, Some("F4"), at)
+        .unwrap();
     if let Some(a) = t.feature_mut("F4").and_then(|f| f.current_attempt_mut()) {
         a.step = Step::Done;
     }
     let at = clock.tick(10);
-    t.notes.push(Note { text: "F5 straightness is large against its tolerance; deburr the gib face before assembly.".into(), feature: Some("F5".into()), by: "LV".into(), at });
+    t.notes.push(Note {
+        text:
+            "F5 straightness is large against its tolerance; deburr the gib face before assembly."
+                .into(),
+        feature: Some("F5".into()),
+        by: "LV".into(),
+        at,
+    });
     t.log_at(at, "LV", EventKind::Note, Some("F5"), None, "straightness");
     let at = clock.tick(3);
     t.sign("LV", Role::Lead, Scope::Job, None, at).unwrap();
@@ -398,11 +508,19 @@ pub fn write_all(dir: &Path) {
     let mut clock = Clock::new("2025-03-04T07:05:00-05:00");
     first_shift(&mut t, &mut clock);
     let head = "# Job J-2417 at the end of the first shift (invented example): F1 signed, F2 stopped\n# mid-sweep with a handover note. Written by tiltbook; check with `tiltbook check`.\n";
-    std::fs::write(dir.join("ds-204-half-done.yaml"), format!("{head}{}", to_yaml(&t).unwrap())).unwrap();
+    std::fs::write(
+        dir.join("ds-204-half-done.yaml"),
+        format!("{head}{}", to_yaml(&t).unwrap()),
+    )
+    .unwrap();
     let mut clock = Clock::new("2025-03-04T15:20:00-05:00");
     second_shift(&mut t, &mut clock);
     let mut clock = Clock::new("2025-03-05T08:10:00-05:00");
     lead_review(&mut t, &mut clock);
     let head = "# Job J-2417 finished and signed (invented example): F3 failed first and passed on a\n# second attempt; F2 used centres past calibration; F4 fell in the doubt band; F5 had a\n# block swapped by hand. Written by tiltbook; check with `tiltbook check`.\n";
-    std::fs::write(dir.join("ds-204-finished.yaml"), format!("{head}{}", to_yaml(&t).unwrap())).unwrap();
+    std::fs::write(
+        dir.join("ds-204-finished.yaml"),
+        format!("{head}{}", to_yaml(&t).unwrap()),
+    )
+    .unwrap();
 }

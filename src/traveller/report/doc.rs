@@ -35,7 +35,10 @@ fn pad(s: &str, width: usize) -> String {
 pub fn md_escape(s: &str) -> String {
     let mut out = String::with_capacity(s.len());
     for c in s.chars() {
-        if matches!(c, '\\' | '|' | '*' | '_' | '`' | '<' | '>' | '[' | ']' | '#') {
+        if matches!(
+            c,
+            '\\' | '|' | '*' | '_' | '`' | '<' | '>' | '[' | ']' | '#'
+        ) {
             out.push('\\');
         }
         if c == '\n' {

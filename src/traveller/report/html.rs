@@ -59,7 +59,10 @@ pub fn page(d: &Doc, title: &str) -> String {
     let mut o = String::new();
     o.push_str("<!DOCTYPE html>\n<html lang=\"en\">\n<head>\n<meta charset=\"utf-8\">\n");
     o.push_str("<meta name=\"viewport\" content=\"width=device-width, initial-scale=1\">\n");
-    o.push_str(&format!("<title>{}</title>\n<style>\n{CSS}</style>\n</head>\n<body>\n", escape(title)));
+    o.push_str(&format!(
+        "<title>{}</title>\n<style>\n{CSS}</style>\n</head>\n<body>\n",
+        escape(title)
+    ));
     let mut open = false;
     for b in &d.blocks {
         match b {
@@ -80,7 +83,10 @@ pub fn page(d: &Doc, title: &str) -> String {
                         }
                         _ => cell(v),
                     };
-                    o.push_str(&format!("<tr><th scope=\"row\">{}</th><td>{v}</td></tr>\n", escape(k)));
+                    o.push_str(&format!(
+                        "<tr><th scope=\"row\">{}</th><td>{v}</td></tr>\n",
+                        escape(k)
+                    ));
                 }
                 o.push_str("</table>\n");
             }

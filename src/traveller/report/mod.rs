@@ -71,11 +71,12 @@ impl Flag {
 /// The flags of one feature.
 pub fn flags(t: &Traveller, f: &Feature) -> Vec<Flag> {
     let mut out = Vec::new();
-    if f
-        .attempts
-        .iter()
-        .any(|a| a.stack.iter().chain(a.stack_b.iter()).any(Stack::swapped_by_hand))
-    {
+    if f.attempts.iter().any(|a| {
+        a.stack
+            .iter()
+            .chain(a.stack_b.iter())
+            .any(Stack::swapped_by_hand)
+    }) {
         out.push(Flag::SwappedByHand);
     }
     let mut late: Vec<String> = Vec::new();
@@ -230,9 +231,16 @@ pub fn document(t: &Traveller) -> Doc {
     let j = &t.job;
     d.push(Block::Title(format!("Traveller {} — {}", j.id, j.part)));
     let (done, total) = t.progress();
-    let mut fields = vec![("Job".to_string(), j.id.clone()), ("Part".into(), j.part.clone())];
+    let mut fields = vec![
+        ("Job".to_string(), j.id.clone()),
+        ("Part".into(), j.part.clone()),
+    ];
     if !j.drawing.is_empty() {
-        let rev = if j.revision.is_empty() { String::new() } else { format!(" rev {}", j.revision) };
+        let rev = if j.revision.is_empty() {
+            String::new()
+        } else {
+            format!(" rev {}", j.revision)
+        };
         fields.push(("Drawing".into(), format!("{}{rev}", j.drawing)));
     }
     if !j.material.is_empty() {
@@ -240,8 +248,15 @@ pub fn document(t: &Traveller) -> Doc {
     }
     fields.push(("Quantity".into(), j.quantity.to_string()));
     fields.push(("Units".into(), u.symbol().to_string()));
-    fields.push(("Progress".into(), format!("{done} of {total} features finished")));
-    let flagged = t.features.iter().filter(|f| !flags(t, f).is_empty()).count();
+    fields.push((
+        "Progress".into(),
+        format!("{done} of {total} features finished"),
+    ));
+    let flagged = t
+        .features
+        .iter()
+        .filter(|f| !flags(t, f).is_empty())
+        .count();
     fields.push(("Flagged".into(), format!("{flagged} feature(s)")));
     if !j.notes.is_empty() {
         fields.push(("Notes".into(), j.notes.clone()));
@@ -270,9 +285,18 @@ pub fn document(t: &Traveller) -> Doc {
         })
         .collect();
     d.push(Block::Table {
-        head: ["Id", "Feature", "Setting", "Tolerance", "State", "Verdict", "Attempts", "Flags"]
-            .map(String::from)
-            .to_vec(),
+        head: [
+            "Id",
+            "Feature",
+            "Setting",
+            "Tolerance",
+            "State",
+            "Verdict",
+            "Attempts",
+            "Flags",
+        ]
+        .map(String::from)
+        .to_vec(),
         rows,
     });
 
@@ -290,8 +314,15 @@ fn feature_section(t: &Traveller, f: &Feature, u: Unit, d: &mut Doc) {
     if !f.description.is_empty() {
         rows.push(("Description".into(), f.description.clone()));
     }
-    rows.push(("Kind".into(), format!("{}; {}", kind_text(f), written(&f.work).replace('_', " "))));
-    rows.push(("Nominal".into(), f.setting_angle().map_or("—".into(), |a| format!("{} ({})", a.dms(1), a.decimal(4)))));
+    rows.push((
+        "Kind".into(),
+        format!("{}; {}", kind_text(f), written(&f.work).replace('_', " ")),
+    ));
+    rows.push((
+        "Nominal".into(),
+        f.setting_angle()
+            .map_or("—".into(), |a| format!("{} ({})", a.dms(1), a.decimal(4))),
+    ));
     rows.push(("Tolerance".into(), f.tolerance.to_string()));
     rows.push(("State".into(), f.state.label().into()));
     rows.push(("Attempts".into(), f.attempts.len().to_string()));
@@ -299,19 +330,29 @@ fn feature_section(t: &Traveller, f: &Feature, u: Unit, d: &mut Doc) {
     if let Some(a) = a {
         rows.push(("Attempt shown".into(), a.number.to_string()));
         if let Some(c) = &a.fixture {
-            let fx = t.fixture(&c.id).map_or(String::new(), |x| format!(" (C = {})", x.centre.show_fine(u)));
+            let fx = t.fixture(&c.id).map_or(String::new(), |x| {
+                format!(" (C = {})", x.centre.show_fine(u))
+            });
             rows.push(("Fixture".into(), format!("{}{fx}", c.id)));
         }
         if let Some(c) = &a.block_set {
-            let g = t.block_set(&c.id).map_or(String::new(), |x| format!(" (grade {})", x.grade));
+            let g = t
+                .block_set(&c.id)
+                .map_or(String::new(), |x| format!(" (grade {})", x.grade));
             rows.push(("Block set".into(), format!("{}{g}", c.id)));
         }
         if let Some(s) = &a.stack {
             rows.push(("Stack".into(), stack_text(s, u)));
-            rows.push(("Achieved angle".into(), format!("{} ({})", s.achieved.dms(1), s.achieved.decimal(4))));
+            rows.push((
+                "Achieved angle".into(),
+                format!("{} ({})", s.achieved.dms(1), s.achieved.decimal(4)),
+            ));
         }
         if let Some(s) = &a.stack_b {
-            rows.push(("Second stack".into(), format!("{} → {}", stack_text(s, u), s.achieved.dms(1))));
+            rows.push((
+                "Second stack".into(),
+                format!("{} → {}", stack_text(s, u), s.achieved.dms(1)),
+            ));
         }
         if let Some(j) = &a.judgement {
             rows.push(("Residual".into(), j.residual.arcsec_signed(1)));
@@ -319,9 +360,20 @@ fn feature_section(t: &Traveller, f: &Feature, u: Unit, d: &mut Doc) {
             rows.push(("U (k = 2)".into(), format!("{:.1}\"", j.u.arcsec())));
             rows.push(("Straightness".into(), j.fit.straightness.show_fine(u)));
             let rule = written(&j.rule);
-            rows.push(("Verdict".into(), format!("{} ({rule} rule)", j.verdict.label())));
+            rows.push((
+                "Verdict".into(),
+                format!("{} ({rule} rule)", j.verdict.label()),
+            ));
             if let Some(dd) = &j.doubt_decision {
-                rows.push(("Lead's decision".into(), format!("{} — {} ({})", dd.verdict.label(), dd.reason, who_when(&dd.by, &dd.at))));
+                rows.push((
+                    "Lead's decision".into(),
+                    format!(
+                        "{} — {} ({})",
+                        dd.verdict.label(),
+                        dd.reason,
+                        who_when(&dd.by, &dd.at)
+                    ),
+                ));
             }
             rows.push(("Judged by".into(), who_when(&j.by, &j.at)));
         }
@@ -329,11 +381,25 @@ fn feature_section(t: &Traveller, f: &Feature, u: Unit, d: &mut Doc) {
             rows.push(("Note".into(), a.note.clone()));
         }
     }
-    for s in t.signoffs.iter().filter(|s| s.feature.as_deref() == Some(f.id.as_str())) {
-        rows.push(("Signed".into(), format!("{} ({})", who_when(&s.by, &s.at), written(&s.role))));
+    for s in t
+        .signoffs
+        .iter()
+        .filter(|s| s.feature.as_deref() == Some(f.id.as_str()))
+    {
+        rows.push((
+            "Signed".into(),
+            format!("{} ({})", who_when(&s.by, &s.at), written(&s.role)),
+        ));
     }
     let fl = flags(t, f);
-    rows.push(("Flags".into(), if fl.is_empty() { "none".into() } else { fl.iter().map(Flag::describe).collect::<Vec<_>>().join("; ") }));
+    rows.push((
+        "Flags".into(),
+        if fl.is_empty() {
+            "none".into()
+        } else {
+            fl.iter().map(Flag::describe).collect::<Vec<_>>().join("; ")
+        },
+    ));
     d.push(Block::Fields(rows));
     if f.attempts.len() > 1 {
         let rows = f
@@ -346,13 +412,25 @@ fn feature_section(t: &Traveller, f: &Feature, u: Unit, d: &mut Doc) {
                     a.stack.as_ref().map_or("—".into(), |s| len(s.height, u)),
                     j.map_or("—".into(), |j| j.deviation.arcsec_signed(1)),
                     j.map_or("—".into(), |j| j.verdict.label().to_string()),
-                    j.and_then(|j| j.correction.as_ref()).map_or("—".into(), |c| format!("{} → {}", c.delta.show_fine(u), len(c.height, u))),
+                    j.and_then(|j| j.correction.as_ref())
+                        .map_or("—".into(), |c| {
+                            format!("{} → {}", c.delta.show_fine(u), len(c.height, u))
+                        }),
                     a.note.clone(),
                 ]
             })
             .collect();
         d.push(Block::Table {
-            head: ["Attempt", "Stack", "Deviation", "Verdict", "Correction", "Note"].map(String::from).to_vec(),
+            head: [
+                "Attempt",
+                "Stack",
+                "Deviation",
+                "Verdict",
+                "Correction",
+                "Note",
+            ]
+            .map(String::from)
+            .to_vec(),
             rows,
         });
     }
@@ -383,10 +461,17 @@ fn equipment(t: &Traveller, u: Unit, d: &mut Doc) {
         if !s.worn.is_empty() {
             w.push_str(&format!(", {} worn", s.worn.len()));
         }
-        vec![s.id.clone(), "block set".into(), w, s.due.map_or("—".into(), |d| d.to_string())]
+        vec![
+            s.id.clone(),
+            "block set".into(),
+            w,
+            s.due.map_or("—".into(), |d| d.to_string()),
+        ]
     }));
     d.push(Block::Table {
-        head: ["Id", "Kind", "Values", "Calibration due"].map(String::from).to_vec(),
+        head: ["Id", "Kind", "Values", "Calibration due"]
+            .map(String::from)
+            .to_vec(),
         rows,
     });
 }
@@ -394,40 +479,73 @@ fn equipment(t: &Traveller, u: Unit, d: &mut Doc) {
 fn records(t: &Traveller, d: &mut Doc) {
     if !t.handovers.is_empty() {
         d.push(Block::Heading("Handover notes".into()));
-        d.push(Block::List(t.handovers.iter().map(|h| {
-            let read: Vec<String> = h.read_by.iter().map(|m| m.by.clone()).collect();
-            let read = if read.is_empty() { "not yet read".into() } else { format!("read by {}", read.join(", ")) };
-            format!("{} — {} ({read})", who_when(&h.by, &h.at), h.text)
-        }).collect()));
+        d.push(Block::List(
+            t.handovers
+                .iter()
+                .map(|h| {
+                    let read: Vec<String> = h.read_by.iter().map(|m| m.by.clone()).collect();
+                    let read = if read.is_empty() {
+                        "not yet read".into()
+                    } else {
+                        format!("read by {}", read.join(", "))
+                    };
+                    format!("{} — {} ({read})", who_when(&h.by, &h.at), h.text)
+                })
+                .collect(),
+        ));
     }
     if !t.notes.is_empty() {
         d.push(Block::Heading("Notes".into()));
-        d.push(Block::List(t.notes.iter().map(|n| {
-            let on = n.feature.as_ref().map_or(String::new(), |f| format!("[{f}] "));
-            format!("{on}{} — {}", who_when(&n.by, &n.at), n.text)
-        }).collect()));
+        d.push(Block::List(
+            t.notes
+                .iter()
+                .map(|n| {
+                    let on = n
+                        .feature
+                        .as_ref()
+                        .map_or(String::new(), |f| format!("[{f}] "));
+                    format!("{on}{} — {}", who_when(&n.by, &n.at), n.text)
+                })
+                .collect(),
+        ));
     }
     if !t.returns.is_empty() {
         d.push(Block::Heading("Returned by the lead".into()));
-        d.push(Block::List(t.returns.iter().map(|r| {
-            let on = r.feature.as_ref().map_or("job".to_string(), |f| f.clone());
-            format!("{on}: {} — {}", who_when(&r.by, &r.at), r.comment)
-        }).collect()));
+        d.push(Block::List(
+            t.returns
+                .iter()
+                .map(|r| {
+                    let on = r.feature.as_ref().map_or("job".to_string(), |f| f.clone());
+                    format!("{on}: {} — {}", who_when(&r.by, &r.at), r.comment)
+                })
+                .collect(),
+        ));
     }
     if !t.signoffs.is_empty() {
         d.push(Block::Heading("Sign-offs".into()));
         d.push(Block::Table {
-            head: ["Scope", "By", "Role", "When", "Digest"].map(String::from).to_vec(),
-            rows: t.signoffs.iter().map(|s| vec![
-                s.feature.clone().unwrap_or_else(|| "job".into()),
-                s.by.clone(),
-                written(&s.role),
-                s.at.short(),
-                s.digest.chars().take(16).collect(),
-            ]).collect(),
+            head: ["Scope", "By", "Role", "When", "Digest"]
+                .map(String::from)
+                .to_vec(),
+            rows: t
+                .signoffs
+                .iter()
+                .map(|s| {
+                    vec![
+                        s.feature.clone().unwrap_or_else(|| "job".into()),
+                        s.by.clone(),
+                        written(&s.role),
+                        s.at.short(),
+                        s.digest.chars().take(16).collect(),
+                    ]
+                })
+                .collect(),
         });
     }
-    d.push(Block::Para(format!("{} events in the log.", t.events.len())));
+    d.push(Block::Para(format!(
+        "{} events in the log.",
+        t.events.len()
+    )));
 }
 
 /// Render the report in `format`.

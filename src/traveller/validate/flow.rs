@@ -45,14 +45,18 @@ pub(super) fn state_matches_content(t: &Traveller, f: &Feature, p: &str, out: &m
         out.at(&format!("{p}.state"), format!("feature {} is `planned` but work has been recorded on it; set `state:` to where work really is", f.id));
     }
     if f.state == Signed
-        && !t.signoffs.iter().any(|s| {
-            s.scope == Scope::Job || s.feature.as_deref() == Some(f.id.as_str())
-        })
+        && !t
+            .signoffs
+            .iter()
+            .any(|s| s.scope == Scope::Job || s.feature.as_deref() == Some(f.id.as_str()))
     {
         out.at(&format!("{p}.state"), format!("feature {} is `signed` but there is no sign-off for it; sign it or set the state back", f.id));
     }
     if f.state == Nonconforming
-        && !t.notes.iter().any(|n| n.feature.as_deref() == Some(f.id.as_str()))
+        && !t
+            .notes
+            .iter()
+            .any(|n| n.feature.as_deref() == Some(f.id.as_str()))
         && a.is_none_or(|a| a.note.trim().is_empty())
     {
         out.at(&format!("{p}.state"), format!("feature {} is recorded nonconforming without a note; add a note saying what was found", f.id));
@@ -63,7 +67,12 @@ pub(super) fn state_matches_content(t: &Traveller, f: &Feature, p: &str, out: &m
 /// returns name real features; sign-offs still match.
 pub(super) fn log_and_signoffs(t: &Traveller, out: &mut Out) {
     let index = |id: &str| t.features.iter().position(|f| f.id == id);
-    let ids = t.features.iter().map(|f| f.id.as_str()).collect::<Vec<_>>().join(", ");
+    let ids = t
+        .features
+        .iter()
+        .map(|f| f.id.as_str())
+        .collect::<Vec<_>>()
+        .join(", ");
     let mut last: Option<&Stamp> = None;
     let mut states: Vec<Option<FeatureState>> = vec![None; t.features.len()];
     for (i, e) in t.events.iter().enumerate() {
@@ -92,11 +101,13 @@ pub(super) fn log_and_signoffs(t: &Traveller, out: &mut Out) {
             if !ok {
                 out.at(&format!("{p}.kind"), format!("feature {fid} cannot go from `{}` to `{}`; the log is out of step with the work: check for a missing or edited entry", prev.label(), next.label()));
             }
-            states[fi] = Some(if prev == FeatureState::Nonconforming && next == FeatureState::Signed {
-                prev
-            } else {
-                next
-            });
+            states[fi] = Some(
+                if prev == FeatureState::Nonconforming && next == FeatureState::Signed {
+                    prev
+                } else {
+                    next
+                },
+            );
         }
     }
     for (fi, st) in states.iter().enumerate() {
@@ -121,7 +132,10 @@ pub(super) fn log_and_signoffs(t: &Traveller, out: &mut Out) {
             out.at(&format!("returns[{i}].feature"), format!("return names feature `{fid}`, which is not in this job; correct the id (features here: {ids})"));
         }
         if r.comment.trim().is_empty() {
-            out.at(&format!("returns[{i}].comment"), "a return needs the lead's comment saying what to do");
+            out.at(
+                &format!("returns[{i}].comment"),
+                "a return needs the lead's comment saying what to do",
+            );
         }
     }
     for (i, s) in t.signoffs.iter().enumerate() {
@@ -156,11 +170,17 @@ fn field_path(t: &Traveller, feature: &str, field: &str) -> String {
 fn signoff(t: &Traveller, s: &SignOff, p: &str, out: &mut Out) {
     let who = format!("signed by {} ({}) on {}", s.by, role(s.role), s.at.short());
     if s.scope == Scope::Feature && s.feature.is_none() {
-        out.at(&format!("{p}.scope"), "a feature sign-off must name its feature, e.g. `feature: F1`");
+        out.at(
+            &format!("{p}.scope"),
+            "a feature sign-off must name its feature, e.g. `feature: F1`",
+        );
         return;
     }
     if s.scope == Scope::Job && s.feature.is_some() {
-        out.at(&format!("{p}.feature"), "a job sign-off covers every feature; remove `feature:` or set `scope: feature`");
+        out.at(
+            &format!("{p}.feature"),
+            "a job sign-off covers every feature; remove `feature:` or set `scope: feature`",
+        );
     }
     for c in digest::verify(t, s) {
         match c {

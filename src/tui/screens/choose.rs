@@ -2,7 +2,7 @@
 
 use super::super::app::App;
 use super::super::chrome::row_mark;
-use super::super::flow_build::{height_step, setting};
+use super::super::flow::{height_step, setting};
 use super::super::rank::sizes_text;
 use super::super::view::boxed;
 use super::{arcsec, cell};
@@ -22,7 +22,7 @@ pub fn draw_fixtures(f: &mut Frame, area: Rect, app: &App) {
     let unit = app.unit();
     let (list, detail) = split(area, app.ui.fixtures.len());
     let w = list.width.saturating_sub(2) as usize;
-    let (wid, wwhat, wh, we, wu) = (8, 18, 11, 9, 8);
+    let (wid, wwhat, wh, we, wu) = (11, 15, 11, 8, 8);
     let wst = w.saturating_sub(2 + wid + wwhat + wh + we + wu).max(6);
     let mut lines = vec![Line::from(vec![
         cell("", 2, t.dim()),
@@ -41,30 +41,31 @@ pub fn draw_fixtures(f: &mut Frame, area: Rect, app: &App) {
         let state = match (&o.why_not, o.out_of_date) {
             (Some(w), _) => format!("no: {w}"),
             (None, true) => "OUT OF DATE (reason)".into(),
+            (None, false) if !o.suitable => "not made for this".into(),
             (None, false) if !o.warnings.is_empty() => "yes, see warnings".into(),
             (None, false) => "yes".into(),
         };
         let sstyle = if i == app.ui.fixture_sel {
             style
-        } else if o.why_not.is_some() {
+        } else if o.why_not.is_some() || !o.suitable {
             t.dim()
         } else if o.out_of_date {
             t.warn()
         } else {
             style
         };
-        let what = if fx.description.is_empty() {
-            format!("{:?}", fx.kind)
-        } else {
-            fx.description.clone()
-        };
+        let what = kind_words(fx.kind);
         lines.push(Line::from(vec![
             cell(mark, 2, style),
             cell(&fx.id, wid, style),
-            cell(&what, wwhat, style),
+            cell(what, wwhat, style),
             cell(&o.height.map_or("—".into(), |h| h.show(unit)), wh, style),
             cell(&o.error.map_or("—".into(), arcsec), we, style),
-            cell(&o.u.map_or("—".into(), |u| format!("{:.1}\"", u.arcsec())), wu, style),
+            cell(
+                &o.u.map_or("—".into(), |u| format!("{:.1}\"", u.arcsec())),
+                wu,
+                style,
+            ),
             cell(&state, wst, sstyle),
         ]));
     }
@@ -86,17 +87,24 @@ pub fn draw_fixtures(f: &mut Frame, area: Rect, app: &App) {
             Span::raw(format!(
                 "C {} (calibrated){}  rolls {} / {}",
                 fx.centre.show_fine(unit),
-                fx.centre_u
-                    .map_or(String::new(), |u| format!(" u {}", u.show_fine(crate::units::Unit::Mm))),
+                fx.centre_u.map_or(String::new(), |u| format!(
+                    " u {}",
+                    u.show_fine(crate::units::Unit::Mm)
+                )),
                 fx.roll_pivot.show(unit),
                 fx.roll_stack.show(unit)
             )),
         ]));
+        if let Some((_, note)) = fx.description.split_once("; ") {
+            d.push(Line::raw(format!("note: {note}")));
+        }
         let due = fx.due.map_or("not given".into(), |d| d.to_string());
         d.push(Line::raw(format!(
             "calibration due {due}{}{}",
-            fx.max_stack
-                .map_or(String::new(), |m| format!("  largest stack {}", m.show(unit))),
+            fx.max_stack.map_or(String::new(), |m| format!(
+                "  largest stack {}",
+                m.show(unit)
+            )),
             fx.max_angle
                 .map_or(String::new(), |m| format!("  rated to {}", m.dm()))
         )));
@@ -111,7 +119,9 @@ pub fn draw_fixtures(f: &mut Frame, area: Rect, app: &App) {
             t.dim(),
         ));
     } else {
-        d.push(Line::raw("The shop file lists no fixtures: add one, then open the job again."));
+        d.push(Line::raw(
+            "The shop file lists no fixtures: add one, then open the job again.",
+        ));
     }
     f.render_widget(
         Paragraph::new(d)
@@ -140,7 +150,11 @@ pub fn draw_sets(f: &mut Frame, area: Rect, app: &App) {
     for (i, o) in app.ui.sets.iter().enumerate() {
         let s = &app.shop.sets[o.index];
         let (mark, style) = row_mark(i == app.ui.set_sel, t);
-        let cal = if o.out_of_date { "OUT OF DATE" } else { "in date" };
+        let cal = if o.out_of_date {
+            "OUT OF DATE"
+        } else {
+            "in date"
+        };
         lines.push(Line::from(vec![
             cell(mark, 2, style),
             cell(&s.snap.id, wid, style),
@@ -149,7 +163,15 @@ pub fn draw_sets(f: &mut Frame, area: Rect, app: &App) {
             cell(&s.count().to_string(), wn, style),
             cell(&s.missing().len().to_string(), wm, style),
             cell(&s.worn().len().to_string(), ww, style),
-            cell(cal, 14, if o.out_of_date && i != app.ui.set_sel { t.warn() } else { style }),
+            cell(
+                cal,
+                14,
+                if o.out_of_date && i != app.ui.set_sel {
+                    t.warn()
+                } else {
+                    style
+                },
+            ),
         ]));
     }
     f.render_widget(Paragraph::new(lines).block(boxed("Block sets", t)), list);
@@ -162,7 +184,10 @@ pub fn draw_sets(f: &mut Frame, area: Rect, app: &App) {
             Span::raw(sizes_text(s.missing(), unit)),
         ]));
         d.push(Line::from(vec![
-            Span::styled("Worn (used only when no other stack of as many blocks will do): ", t.warn()),
+            Span::styled(
+                "Worn (used only when no other stack of as many blocks will do): ",
+                t.warn(),
+            ),
             Span::raw(sizes_text(s.worn(), unit)),
         ]));
         d.push(Line::raw(format!(
@@ -174,7 +199,9 @@ pub fn draw_sets(f: &mut Frame, area: Rect, app: &App) {
             s.snap.due.map_or("not given".into(), |d| d.to_string())
         )));
     } else {
-        d.push(Line::raw("The shop file lists no block sets: add one, then open the job again."));
+        d.push(Line::raw(
+            "The shop file lists no block sets: add one, then open the job again.",
+        ));
     }
     f.render_widget(
         Paragraph::new(d)
@@ -182,4 +209,16 @@ pub fn draw_sets(f: &mut Frame, area: Rect, app: &App) {
             .block(boxed("Selected set", t)),
         detail,
     );
+}
+
+/// The kind of a fixture in words.
+pub fn kind_words(k: crate::traveller::FixtureKind) -> &'static str {
+    use crate::traveller::FixtureKind as K;
+    match k {
+        K::SineBar => "sine bar",
+        K::SinePlate => "sine plate",
+        K::SineVise => "sine vise",
+        K::SineCentres => "sine centres",
+        K::CompoundPlate => "compound plate",
+    }
 }

@@ -51,20 +51,34 @@ pub fn draw(f: &mut Frame, area: Rect, app: &App) {
     let job = &app.doc.job;
     let mut info = vec![
         Span::styled(job.part.clone(), t.title()),
-        Span::raw(format!("  qty {}  unit {}", job.quantity, job.unit.symbol())),
+        Span::raw(format!(
+            "  qty {}  unit {}",
+            job.quantity,
+            job.unit.symbol()
+        )),
     ];
     if !job.drawing.is_empty() {
-        info.push(Span::raw(format!("  drawing {} {}", job.drawing, job.revision)));
+        info.push(Span::raw(format!(
+            "  drawing {} {}",
+            job.drawing, job.revision
+        )));
     }
     if !job.material.is_empty() {
         info.push(Span::raw(format!("  {}", job.material)));
     }
     f.render_widget(
-        Paragraph::new(vec![Line::from(info), Line::styled(app.file_label.clone(), t.dim())]),
+        Paragraph::new(vec![
+            Line::from(info),
+            Line::styled(app.file_label.clone(), t.dim()),
+        ]),
         head,
     );
     let (done, total) = app.doc.progress();
-    let ratio = if total == 0 { 0.0 } else { done as f64 / total as f64 };
+    let ratio = if total == 0 {
+        0.0
+    } else {
+        done as f64 / total as f64
+    };
     f.render_widget(
         Gauge::default()
             .ratio(ratio)
@@ -120,7 +134,10 @@ pub fn next_for_job(app: &App) -> String {
     let sel = app.doc.features.get(app.ui.overview_sel);
     match sel {
         Some(feat) if feat.is_finished() => match app.doc.next_feature() {
-            Some(n) => format!("{} is finished; next is {}: select it (↑↓) and press Enter", feat.id, n.id),
+            Some(n) => format!(
+                "{} is finished; next is {}: select it (↑↓) and press Enter",
+                feat.id, n.id
+            ),
             None => "every feature is finished: the traveller goes to the lead for review".into(),
         },
         Some(feat) => match feat.current_attempt() {

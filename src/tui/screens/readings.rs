@@ -2,7 +2,7 @@
 //! command line and checked as typed; the chart of points and fitted line beside them.
 
 use super::super::app::{App, RField};
-use super::super::flow_check::{check_field, count, fields_for};
+use super::super::flow::readings::{check_field, count, fields_for};
 use super::super::judge::fit_so_far;
 use super::super::view::boxed;
 use super::super::widgets::sweep_chart;
@@ -20,7 +20,7 @@ fn sweep(app: &App) -> Option<&Sweep> {
 fn label(r: RField) -> &'static str {
     match r {
         RField::Travel => "Travel",
-        RField::Points => "Readings",
+        RField::Points => "Count",
         RField::Position => "Position",
         RField::Reading => "Reading",
     }
@@ -36,18 +36,17 @@ pub fn draw(f: &mut Frame, area: Rect, app: &App) {
     let mode = s.map_or(SweepMode::Spaced, |s| s.mode);
     let fields = fields_for(mode);
     let [form, list] = Layout::vertical([
-        Constraint::Length(fields.len() as u16 + 4),
+        Constraint::Length(fields.len() as u16 + 5),
         Constraint::Min(3),
     ])
     .areas(left);
     let inner_w = form.width.saturating_sub(2) as usize;
     let mut lines = vec![Line::from(vec![
-        Span::styled("Mode ", t.dim()),
         Span::raw(match mode {
-            SweepMode::Spaced => "fixed spacing over a travel",
-            SweepMode::Pairs => "position / reading pairs",
+            SweepMode::Spaced => "Fixed spacing over a travel",
+            SweepMode::Pairs => "Position / reading pairs",
         }),
-        Span::styled("  (F2 switches)", t.dim()),
+        Span::styled(" · F2 switches", t.dim()),
     ])];
     let mut focused_msg = None;
     for r in fields {
@@ -74,27 +73,35 @@ pub fn draw(f: &mut Frame, area: Rect, app: &App) {
             Err(e) if fld.text.trim().is_empty() => (e.clone(), t.dim()),
             Err(e) => (format!("✗ {e}"), t.bad()),
         };
-        let used = 1 + 10 + 14 + 1;
+        let used = 1 + 9 + 12 + 1;
         lines.push(Line::from(vec![
             Span::styled(mark, lstyle),
-            Span::styled(fit(label(*r), 9), lstyle),
+            Span::styled(fit(label(*r), 8), lstyle),
             Span::raw(" "),
-            Span::styled(fit(&shown, 14), t.field()),
+            Span::styled(fit(&shown, 12), t.field()),
             Span::raw(" "),
             Span::styled(fit(&mtext, inner_w.saturating_sub(used)), mstyle),
         ]));
-        if focus && mtext.chars().count() > inner_w.saturating_sub(used) {
+        if focus {
             focused_msg = Some((mtext, mstyle));
         }
     }
     if let Some((m, st)) = focused_msg {
-        lines.push(Line::styled(m, st));
+        lines.push(Line::styled(format!("↳ {m}"), st));
     }
     let n = s.map_or(0, count);
     let plan = s.and_then(|s| s.points);
+    let fit_text = match s.and_then(fit_so_far) {
+        Some(fit) => format!(
+            " · residual {:+.1}\" · straightness {}",
+            fit.residual.arcsec(),
+            fit.straightness.show_fine(unit)
+        ),
+        None => String::new(),
+    };
     let title = match (mode, plan) {
-        (SweepMode::Spaced, Some(p)) => format!("Readings {n} of {p}"),
-        _ => format!("Readings ({n})"),
+        (SweepMode::Spaced, Some(p)) => format!("Readings {n} of {p}{fit_text}"),
+        _ => format!("Readings ({n}){fit_text}"),
     };
     f.render_widget(
         Paragraph::new(lines)
@@ -122,21 +129,23 @@ pub fn draw(f: &mut Frame, area: Rect, app: &App) {
         }
         if !positions_known {
             for (i, r) in s.readings.iter().enumerate() {
-                rows.push(Line::raw(format!("{:>3}  {:>12}  {:>13}", i + 1, "?", r.show_fine(unit))));
+                rows.push(Line::raw(format!(
+                    "{:>3}  {:>12}  {:>13}",
+                    i + 1,
+                    "?",
+                    r.show_fine(unit)
+                )));
             }
         }
     }
     f.render_widget(Paragraph::new(rows).block(boxed(&title, t)), list);
 
-    let fit_text = match s.and_then(fit_so_far) {
-        Some(fit) => format!(
-            "Sweep: residual {:+.1}\", straightness {}",
-            fit.residual.arcsec(),
-            fit.straightness.show_fine(unit)
-        ),
-        None => "Sweep: the line appears from two readings".into(),
+    let chart_title = if s.and_then(fit_so_far).is_some() {
+        "Readings ● and fitted line"
+    } else {
+        "Readings ● (the line appears from two)"
     };
-    sweep_chart::draw(f, right, s, unit, boxed(&fit_text, t), t);
+    sweep_chart::draw(f, right, s, unit, boxed(chart_title, t), t);
 }
 
 pub fn next(app: &App) -> String {
@@ -149,7 +158,8 @@ pub fn next(app: &App) -> String {
             (None, _) => "type the travel (first to last reading), then Enter".into(),
             (_, None) => "type how many readings you will take, then Enter".into(),
             (Some(tr), Some(p)) if (n as u32) < p => {
-                let at = crate::units::Length::from_nm(tr.nm() * n as i64 / i64::from(p.max(2) - 1));
+                let at =
+                    crate::units::Length::from_nm(tr.nm() * n as i64 / i64::from(p.max(2) - 1));
                 format!(
                     "read at {} from the pivot end: type reading {} of {p}, Enter",
                     at.show(app.unit()),

@@ -1,7 +1,7 @@
 //! The setup: the cautions with the shop's rules, the settle wait, and the side view to scale.
 
 use super::super::app::App;
-use super::super::flow_build::setting;
+use super::super::flow::setting;
 use super::super::view::boxed;
 use super::super::widgets::setup_view::{self, SetupScene};
 use ratatui::Frame;
@@ -39,7 +39,10 @@ pub fn draw_view(f: &mut Frame, area: Rect, app: &App) {
         return;
     };
     let (angle, blocks) = match a.and_then(|a| a.stack.as_ref()) {
-        Some(s) => (s.achieved, s.blocks.iter().map(|b| b.size).collect::<Vec<_>>()),
+        Some(s) => (
+            s.achieved,
+            s.blocks.iter().map(|b| b.size).collect::<Vec<_>>(),
+        ),
         None => (setting(app).unwrap_or_default(), Vec::new()),
     };
     let scene = SetupScene::new(fx, angle, &blocks, app.unit());
@@ -57,11 +60,17 @@ pub fn draw_safety(f: &mut Frame, area: Rect, app: &App) {
         ]));
     }
     for r in &app.shop.settings.rules {
-        lines.push(Line::from(vec![Span::styled("Shop: ", t.warn()), Span::raw(r.clone())]));
+        lines.push(Line::from(vec![
+            Span::styled("Shop: ", t.warn()),
+            Span::raw(r.clone()),
+        ]));
     }
     if let Some(m) = app.attempt().and_then(|a| a.safety.as_ref()) {
         lines.push(Line::raw(""));
-        lines.push(Line::styled(format!("✓ confirmed by {} {}", m.by, m.at.short()), t.good()));
+        lines.push(Line::styled(
+            format!("✓ confirmed by {} {}", m.by, m.at.short()),
+            t.good(),
+        ));
     }
     f.render_widget(
         Paragraph::new(lines)
@@ -91,7 +100,10 @@ pub fn draw_settle(f: &mut Frame, area: Rect, app: &App) {
         (Some(s), _) => {
             ratio = 1.0;
             lines.push(if s.done {
-                Line::styled(format!("✓ settled ({} min)", s.minutes.unwrap_or(0)), t.good())
+                Line::styled(
+                    format!("✓ settled ({} min)", s.minutes.unwrap_or(0)),
+                    t.good(),
+                )
             } else {
                 Line::styled("! the wait was skipped (recorded)", t.warn())
             });
@@ -132,7 +144,11 @@ pub fn next(app: &App) -> String {
         return "press Enter for the readings".into();
     }
     match app.ui.settle_left {
-        Some(l) => format!("let the stack settle ({}:{:02}); s skips the wait", l / 60, l % 60),
+        Some(l) => format!(
+            "let the stack settle ({}:{:02}); s skips the wait",
+            l / 60,
+            l % 60
+        ),
         None => "press s to skip the wait, or Esc to go back".into(),
     }
 }

@@ -3,7 +3,8 @@
 
 use super::super::app::App;
 use super::super::chrome::row_mark;
-use super::super::flow_build::{height_step, setting, target_height};
+use super::super::flow::stack::target_height;
+use super::super::flow::{height_step, setting};
 use super::super::rank::geometry;
 use super::super::view::boxed;
 use super::arcsec;
@@ -42,9 +43,10 @@ pub fn draw(f: &mut Frame, area: Rect, app: &App) {
                 } else {
                     ""
                 };
-                lines.push(Line::from(vec![
-                    Span::styled(format!("{mark} {tick}  {:>2}  {}{note}", i + 1, b.size.show(unit)), style),
-                ]));
+                lines.push(Line::from(vec![Span::styled(
+                    format!("{mark} {tick}  {:>2}  {}{note}", i + 1, b.size.show(unit)),
+                    style,
+                )]));
             }
         }
         None if app.ui.solving => lines.push(Line::raw("working out the stack…")),
@@ -75,13 +77,31 @@ pub fn draw(f: &mut Frame, area: Rect, app: &App) {
             Span::styled("Angle    ", t.dim()),
             Span::styled(s.achieved.dms(1), t.title()),
         ]));
-        if let Some(set) = setting(app) {
-            d.push(Line::from(vec![
-                Span::styled("Setting  ", t.dim()),
-                Span::raw(set.dms(0)),
-                Span::styled("   error ", t.dim()),
-                Span::raw(arcsec(s.achieved - set)),
-            ]));
+        match (aim(app), setting(app)) {
+            (Some((aim, n, residual)), _) => {
+                d.push(Line::from(vec![
+                    Span::styled("Aim      ", t.dim()),
+                    Span::raw(aim.dms(1)),
+                    Span::styled("   error ", t.dim()),
+                    Span::raw(arcsec(s.achieved - aim)),
+                ]));
+                d.push(Line::styled(
+                    format!(
+                        "corrected for attempt {n}: its setting less its residual {}",
+                        arcsec(residual)
+                    ),
+                    t.dim(),
+                ));
+            }
+            (None, Some(set)) => {
+                d.push(Line::from(vec![
+                    Span::styled("Setting  ", t.dim()),
+                    Span::raw(set.dms(0)),
+                    Span::styled("   error ", t.dim()),
+                    Span::raw(arcsec(s.achieved - set)),
+                ]));
+            }
+            (None, None) => {}
         }
         if s.built.is_some() {
             d.push(Line::styled("✓ built and confirmed", t.good()));
@@ -92,39 +112,92 @@ pub fn draw(f: &mut Frame, area: Rect, app: &App) {
                 t.warn(),
             ));
         }
-        if s.blocks.iter().any(|b| !b.protector && set_worn.contains(&b.size)) {
+        if s.blocks
+            .iter()
+            .any(|b| !b.protector && set_worn.contains(&b.size))
+        {
             d.push(Line::styled(
                 "! a worn block is used: no stack of as many blocks avoids it",
                 t.warn(),
             ));
         }
     }
+    if let Some(a) = app.attempt() {
+        d.push(Line::styled(
+            format!(
+                "fixture {}  set {}",
+                a.fixture.as_ref().map_or("?", |c| c.id.as_str()),
+                a.block_set.as_ref().map_or("?", |c| c.id.as_str())
+            ),
+            t.dim(),
+        ));
+    }
+    d.push(Line::styled(
+        "Clean each face, wring with a sliding twist, bottom block first.",
+        t.dim(),
+    ));
     if let Some(e) = &app.ui.solve_error {
         d.push(Line::styled(format!("✗ {e}"), t.bad()));
     }
     for w in advice(app) {
         d.push(Line::styled(format!("! {w}"), t.warn()));
     }
+    // on a tall screen, the setup as it will stand, below the figures
+    let (info, view) = if right.height >= 24 {
+        let [a, b] = Layout::vertical([Constraint::Length(12), Constraint::Min(10)]).areas(right);
+        (a, Some(b))
+    } else {
+        (right, None)
+    };
     f.render_widget(
         Paragraph::new(d)
             .wrap(Wrap { trim: false })
             .block(boxed("What it gives", t)),
-        right,
+        info,
     );
+    if let Some(v) = view {
+        super::setup::draw_view(f, v, app);
+    }
 }
 
-/// Steep-angle advice (the complement side by side) for this feature's fixture.
+/// For an attempt that follows a judged one on the same fixture: the angle to aim at (that
+/// attempt's setting less its residual), the attempt's number and its residual.
+pub fn aim(app: &App) -> Option<(crate::units::Angle, u32, crate::units::Angle)> {
+    let f = app.feature()?;
+    let a = f.current_attempt()?;
+    let prev = f.attempts.iter().rev().nth(1)?;
+    let same = prev.fixture.as_ref()?.id == a.fixture.as_ref()?.id;
+    let j = prev.judgement.as_ref()?;
+    let built = prev.stack.as_ref()?;
+    same.then(|| (built.achieved - j.residual, prev.number, j.residual))
+}
+
+/// Steep-angle advice (the complement side by side) for this feature's fixture, and what a
+/// compound angle's second plate needs.
 pub fn advice(app: &App) -> Vec<String> {
     let (Some(a), Some(angle)) = (app.attempt(), setting(app)) else {
         return Vec::new();
     };
+    let mut out = Vec::new();
+    if let Some(c) = app.feature().and_then(|f| f.compound.as_ref()) {
+        let (near, far) = c.plate_angles();
+        out.push(format!(
+            "compound angle: this stack sets the near plate to {}; the other plate is set to {} with its own stack from the same set, no block shared. These screens record the near plate only: work out the other with `tiltbook stack {} --fixture {} --set {}` and add a note",
+            near.dms(0),
+            far.dms(0),
+            far.decimal(4),
+            a.fixture.as_ref().map_or("ID", |c| c.id.as_str()),
+            a.block_set.as_ref().map_or("ID", |c| c.id.as_str()),
+        ));
+    }
     let Some(fx) = a.fixture.as_ref().and_then(|c| app.doc.fixture(&c.id)) else {
         return Vec::new();
     };
     let unit = app.unit();
     match plan(&geometry(fx), angle, height_step(app), fx.max_stack, unit) {
         Ok(p) => {
-            let mut v = p.warnings;
+            let mut v = out;
+            v.extend(p.warnings);
             if let Some(c) = p.complement {
                 v.push(format!(
                     "complement {}: stack {}, error {} here against {} direct",
@@ -136,7 +209,10 @@ pub fn advice(app: &App) -> Vec<String> {
             }
             v
         }
-        Err(e) => vec![e.to_string()],
+        Err(e) => {
+            out.push(e.to_string());
+            out
+        }
     }
 }
 

@@ -3,7 +3,7 @@
 
 use super::super::app::App;
 use super::super::chrome::row_mark;
-use super::super::flow_check::{After, choices};
+use super::super::flow::verdict::{After, choices};
 use super::super::view::boxed;
 use super::arcsec;
 use crate::traveller::{FeatureState, Verdict};
@@ -31,7 +31,8 @@ pub fn draw(f: &mut Frame, area: Rect, app: &App) {
     };
     let Some(j) = a.judgement.as_ref() else {
         f.render_widget(
-            Paragraph::new("no verdict yet: go back to the readings (Esc)").block(boxed("Verdict", t)),
+            Paragraph::new("no verdict yet: go back to the readings (Esc)")
+                .block(boxed("Verdict", t)),
             area,
         );
         return;
@@ -44,15 +45,22 @@ pub fn draw(f: &mut Frame, area: Rect, app: &App) {
         (area, None)
     };
     let (words, style) = verdict_words(j.verdict, app);
-    let mut lines = vec![Line::styled(format!("  {words}  "), style.add_modifier(ratatui::style::Modifier::REVERSED))];
+    let mut lines = vec![Line::styled(
+        format!("  {words}  "),
+        style.add_modifier(ratatui::style::Modifier::REVERSED),
+    )];
     let rise = if j.residual.arcsec().abs() < 0.05 {
-        "level along the sweep"
+        "is level along the sweep"
     } else if j.residual.deg() > 0.0 {
         "rises toward the raised end"
     } else {
         "rises toward the pivot end"
     };
-    let achieved = a.stack.as_ref().map(|s| s.achieved.dms(1)).unwrap_or_default();
+    let achieved = a
+        .stack
+        .as_ref()
+        .map(|s| s.achieved.dms(1))
+        .unwrap_or_default();
     let row = |k: &str, v: String, rest: String| {
         Line::from(vec![
             Span::styled(format!("{k:<14}"), t.dim()),
@@ -60,7 +68,11 @@ pub fn draw(f: &mut Frame, area: Rect, app: &App) {
             Span::raw(rest),
         ])
     };
-    lines.push(row("Residual δ", arcsec(j.residual), format!("the surface {rise}")));
+    lines.push(row(
+        "Residual δ",
+        arcsec(j.residual),
+        format!("the surface {rise}"),
+    ));
     lines.push(row(
         "Deviation",
         arcsec(j.deviation),
@@ -90,13 +102,20 @@ pub fn draw(f: &mut Frame, area: Rect, app: &App) {
         lines.push(Line::from(vec![
             Span::styled(format!("{:<14}", "Stack change"), t.dim()),
             Span::styled(
-                format!("{dir} the stack by {} to {}", c.delta.abs().show(unit), c.height.show(unit)),
+                format!(
+                    "{dir} the stack by {} to {}",
+                    c.delta.abs().show(unit),
+                    c.height.show(unit)
+                ),
                 t.next(),
             ),
         ]));
     }
     if feat.state == FeatureState::Nonconforming {
-        lines.push(Line::styled(format!("Recorded nonconforming: {}", a.note), t.bad()));
+        lines.push(Line::styled(
+            format!("Recorded nonconforming: {}", a.note),
+            t.bad(),
+        ));
     }
     lines.push(Line::raw(""));
     for (i, c) in choices(Some(j.verdict)).iter().enumerate() {
@@ -111,37 +130,54 @@ pub fn draw(f: &mut Frame, area: Rect, app: &App) {
             Span::styled(format!("  ({key})"), t.dim()),
         ]));
     }
+    let mut budget: Vec<Line> = j
+        .budget
+        .iter()
+        .map(|l| Line::raw(format!("{:>6.2}\"  {}", l.u.arcsec(), l.source)))
+        .collect();
+    budget.push(Line::styled(
+        format!("U = 2·u_c = {:.2}\"", j.u.arcsec()),
+        t.title(),
+    ));
+    match side {
+        Some(side) => {
+            f.render_widget(
+                Paragraph::new(budget)
+                    .wrap(Wrap { trim: false })
+                    .block(boxed("Uncertainty budget (standard, in angle)", t)),
+                side,
+            );
+        }
+        None => {
+            // below the choices, when the screen has the rows
+            let room = main.height.saturating_sub(2) as usize;
+            if lines.len() + 1 + budget.len() <= room {
+                lines.push(Line::styled(
+                    "Uncertainty budget (standard, in angle)",
+                    t.dim(),
+                ));
+                lines.extend(budget);
+            }
+        }
+    }
     f.render_widget(
         Paragraph::new(lines)
             .wrap(Wrap { trim: false })
             .block(boxed(&format!("Verdict, attempt {}", a.number), t)),
         main,
     );
-    if let Some(side) = side {
-        let mut b: Vec<Line> = j
-            .budget
-            .iter()
-            .map(|l| Line::raw(format!("{:>6.2}\"  {}", l.u.arcsec(), l.source)))
-            .collect();
-        b.push(Line::styled(
-            format!("U = 2·u_c = {:.2}\"", j.u.arcsec()),
-            t.title(),
-        ));
-        f.render_widget(
-            Paragraph::new(b)
-                .wrap(Wrap { trim: false })
-                .block(boxed("Uncertainty budget (standard, in angle)", t)),
-            side,
-        );
-    }
 }
 
 pub fn next(app: &App) -> String {
-    let v = app.attempt().and_then(|a| a.judgement.as_ref()).map(|j| j.verdict);
+    let v = app
+        .attempt()
+        .and_then(|a| a.judgement.as_ref())
+        .map(|j| j.verdict);
     match v {
         Some(Verdict::Pass) => "PASS: press Enter to sign the feature".into(),
         Some(Verdict::Fail) => {
-            "FAIL: n for a new attempt with the corrected stack, or x to record it nonconforming".into()
+            "FAIL: n for a new attempt with the corrected stack, or x to record it nonconforming"
+                .into()
         }
         Some(Verdict::Doubt) => {
             "DOUBT: Enter signs (the lead decides), n tries again, x records nonconforming".into()
@@ -184,7 +220,9 @@ pub fn draw_sign(f: &mut Frame, area: Rect, app: &App) {
         lines.push(Line::styled(format!("nonconforming: {}", a.note), t.bad()));
     }
     lines.push(Line::raw(""));
-    lines.push(Line::raw("Your signature says the entries above are what was done and read."));
+    lines.push(Line::raw(
+        "Your signature says the entries above are what was done and read.",
+    ));
     lines.push(Line::from(vec![
         Span::styled("Name or initials: ", t.title()),
         Span::styled(format!("{}▏", app.ui.sign.text), t.field()),

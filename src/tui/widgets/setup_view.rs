@@ -10,8 +10,8 @@ use ratatui::layout::Rect;
 use ratatui::style::Color;
 use ratatui::symbols::Marker;
 use ratatui::text::Line as TextLine;
-use ratatui::widgets::canvas::{Canvas, Circle, Line};
 use ratatui::widgets::Block;
+use ratatui::widgets::canvas::{Canvas, Circle, Line};
 
 /// What the drawing shows.
 #[derive(Debug, Clone)]
@@ -99,7 +99,18 @@ fn shapes(s: &SetupScene) -> Shapes {
         y += h;
     }
     let top = y.max(r.1 - rr);
-    let xs = [a.0, b.0, a2.0, b2.0, w2.0, w3.0, -rp, r.0 + half, r.0 + rr];
+    // room right of the stack for its height label
+    let xs = [
+        a.0,
+        b.0,
+        a2.0,
+        b2.0,
+        w2.0,
+        w3.0,
+        -rp,
+        r.0 + half + 0.4 * c,
+        r.0 + rr,
+    ];
     let ys = [b2.1, w2.1, w3.1, top, r.1 + rr];
     let xmin = xs.iter().copied().fold(f64::MAX, f64::min) - 0.05 * c;
     let xmax = xs.iter().copied().fold(f64::MIN, f64::max) + 0.05 * c;
@@ -188,7 +199,11 @@ pub fn draw(f: &mut Frame, area: Rect, scene: &SetupScene, block: Block, theme: 
                 sh.stack_top.1 / 2.0,
                 TextLine::raw(scene.label_height.clone()),
             );
-            ctx.print(xb[0], yb[1] - (yb[1] - yb[0]) * 0.02, TextLine::raw(scene.label_centre.clone()));
+            ctx.print(
+                xb[0],
+                yb[1] - (yb[1] - yb[0]) * 0.02,
+                TextLine::raw(scene.label_centre.clone()),
+            );
         });
     f.render_widget(canvas, area);
 }

@@ -13,7 +13,14 @@ use ratatui::text::Span;
 use ratatui::widgets::{Axis, Block, Chart, Dataset, GraphType};
 
 /// Draw the chart of `sweep` in `area`.
-pub fn draw(f: &mut Frame, area: Rect, sweep: Option<&Sweep>, unit: Unit, block: Block, theme: Theme) {
+pub fn draw(
+    f: &mut Frame,
+    area: Rect,
+    sweep: Option<&Sweep>,
+    unit: Unit,
+    block: Block,
+    theme: Theme,
+) {
     let pts: Vec<(f64, f64)> = sweep
         .map(|s| {
             s.points_xy()
@@ -42,9 +49,11 @@ pub fn draw(f: &mut Frame, area: Rect, sweep: Option<&Sweep>, unit: Unit, block:
     };
     let ys = pts.iter().chain(line.iter()).map(|p| p.1);
     let (mut ymin, mut ymax) = ys.fold((0.0f64, 0.0f64), |(a, b), y| (a.min(y), b.max(y)));
-    let pad = ((ymax - ymin) * 0.15).max(unit_step(unit));
-    ymin -= pad;
-    ymax += pad;
+    // a little room, then out to whole steps of the unit's resolution
+    let step = unit_step(unit);
+    let pad = ((ymax - ymin) * 0.15).max(step);
+    ymin = ((ymin - pad) / step).floor() * step;
+    ymax = ((ymax + pad) / step).ceil() * step;
     let places = unit.fine_places();
     let ylabels = vec![
         Span::raw(format!("{ymin:+.places$}")),

@@ -1,295 +1,15 @@
-//! The first half of a feature's flow: the fixture, the block set and the stack.
+//! The stack: solved for the height, ticked block by block as it is wrung, a block swapped for
+//! the one really used (the angle follows what was built), protectors on or off.
 
-use super::app::{App, Effect, Level, Prompt, PromptKind, Redo, SolveRequest};
-use super::field::Field;
-use super::keymap::{Action, Input};
-use super::rank::{geometry, list_sets, rank_fixtures};
-use super::update::{enter_step, record, reach, refuse_read_only};
+use super::super::app::{App, Effect, Level, Prompt, PromptKind, SolveRequest};
+use super::super::field::Field;
+use super::super::keymap::{Action, Input};
+use super::super::rank::geometry;
+use super::super::update::{enter_step, reach, record, refuse_read_only};
+use super::{height_step, move_sel};
 use crate::geometry::plan;
-use crate::sweep::default_step;
-use crate::traveller::{Choice, EventKind, Mark, Stack, StackBlock, Stamp, Step, Swap};
+use crate::traveller::{EventKind, Mark, Stack, StackBlock, Stamp, Step, Swap};
 use crate::units::{Angle, Length};
-
-fn move_sel(sel: &mut usize, len: usize, input: Input) {
-    let last = len.saturating_sub(1);
-    match input {
-        Input::Act(Action::Up) => *sel = sel.saturating_sub(1),
-        Input::Act(Action::Down) => *sel = (*sel + 1).min(last),
-        Input::Act(Action::PageUp) => *sel = 0,
-        Input::Act(Action::PageDown) => *sel = last,
-        _ => {}
-    }
-}
-
-/// The step heights are rounded to: the chosen set's resolution, else the job unit's usual one.
-pub fn height_step(app: &App) -> Length {
-    app.attempt()
-        .and_then(|a| a.block_set.as_ref())
-        .and_then(|c| app.shop.set(&c.id))
-        .map_or_else(|| default_step(app.unit()), |s| s.resolution())
-}
-
-/// The setting angle of the feature being worked.
-pub fn setting(app: &App) -> Option<Angle> {
-    app.feature().and_then(|f| f.setting_angle())
-}
-
-// ---------------------------------------------------------------- fixture
-
-pub fn enter_fixture(app: &mut App) {
-    let Some(angle) = setting(app) else {
-        app.ui.fixtures.clear();
-        app.say(
-            Level::Error,
-            "this feature has no angle to set; the plan file must give its nominal",
-        );
-        return;
-    };
-    let step = height_step(app);
-    app.ui.fixtures = rank_fixtures(&app.shop, angle, step, app.unit(), app.today);
-    let chosen = app.attempt().and_then(|a| a.fixture.as_ref()).map(|c| c.id.clone());
-    app.ui.fixture_sel = chosen
-        .and_then(|id| {
-            app.ui
-                .fixtures
-                .iter()
-                .position(|o| app.shop.fixtures[o.index].id == id)
-        })
-        .unwrap_or(0);
-}
-
-pub fn fixture_key(app: &mut App, input: Input) -> Vec<Effect> {
-    if input == Input::Act(Action::Forward) {
-        let Some(o) = app.ui.fixtures.get(app.ui.fixture_sel).cloned() else {
-            return Vec::new();
-        };
-        return choose_fixture(app, o.index, String::new());
-    }
-    move_sel(&mut app.ui.fixture_sel, app.ui.fixtures.len(), input);
-    Vec::new()
-}
-
-fn chosen_id(app: &App, fixture: bool) -> Option<String> {
-    let a = app.attempt()?;
-    let c = if fixture { &a.fixture } else { &a.block_set };
-    c.as_ref().map(|c| c.id.clone())
-}
-
-/// Work after the stack that a change of fixture or set would clear.
-fn later_work(app: &App) -> bool {
-    app.attempt()
-        .is_some_and(|a| a.stack.as_ref().is_some_and(|s| s.blocks.iter().any(|b| b.wrung)) || a.sweep.is_some())
-}
-
-fn choose_fixture(app: &mut App, index: usize, reason: String) -> Vec<Effect> {
-    let Some(f) = app.shop.fixtures.get(index).cloned() else {
-        return Vec::new();
-    };
-    if chosen_id(app, true).as_deref() == Some(f.id.as_str()) {
-        return enter_step(app, current_feature(app), Step::BlockSet);
-    }
-    if refuse_read_only(app) {
-        return Vec::new();
-    }
-    let Some(o) = app.ui.fixtures.iter().find(|o| o.index == index).cloned() else {
-        return Vec::new();
-    };
-    if !o.reachable {
-        app.say(
-            Level::Warn,
-            format!(
-                "{} cannot be used here: {}; choose another",
-                f.id,
-                o.why_not.unwrap_or_default()
-            ),
-        );
-        return Vec::new();
-    }
-    if o.out_of_date && reason.is_empty() {
-        app.prompt = Some(Prompt {
-            kind: PromptKind::FixtureReason(index),
-            title: format!("{}: calibration out of date", f.id),
-            hint: "type why it is used anyway (e.g. lead approved, recheck booked), then Enter; Esc to choose another"
-                .into(),
-            field: Some(Field::new(120)),
-            error: None,
-            carry: String::new(),
-        });
-        return Vec::new();
-    }
-    if chosen_id(app, true).is_some() && later_work(app) {
-        ask_redo(app, Redo::Fixture { index }, reason, &f.id);
-        return Vec::new();
-    }
-    apply_fixture(app, index, reason)
-}
-
-fn ask_redo(app: &mut App, redo: Redo, reason: String, id: &str) {
-    app.prompt = Some(Prompt {
-        kind: PromptKind::Redo(redo),
-        title: format!("Change to {id}?"),
-        hint: "this clears the stack and readings of this attempt (they stay in the event log). Enter: change  Esc: keep"
-            .into(),
-        field: None,
-        error: None,
-        carry: reason,
-    });
-}
-
-pub fn answer_redo(app: &mut App, redo: Redo, reason: String) -> Vec<Effect> {
-    match redo {
-        Redo::Fixture { index } => apply_fixture(app, index, reason),
-        Redo::Set { index } => apply_set(app, index, reason),
-    }
-}
-
-pub fn answer_fixture_reason(
-    app: &mut App,
-    index: usize,
-    reason: String,
-) -> Result<Vec<Effect>, String> {
-    if reason.chars().count() < 3 {
-        return Err("a reason is needed (a few words), e.g. lead approved, recheck booked".into());
-    }
-    Ok(choose_fixture(app, index, reason))
-}
-
-fn current_feature(app: &App) -> usize {
-    app.flow().map_or(0, |(i, _)| i)
-}
-
-/// Clear the stack and everything after it (a changed fixture or set).
-fn clear_from_stack(app: &mut App) {
-    if let Some(a) = app.attempt_mut() {
-        a.stack = None;
-        a.safety = None;
-        a.settle = None;
-        a.sweep = None;
-        a.judgement = None;
-    }
-    app.ui.solve_error = None;
-}
-
-fn apply_fixture(app: &mut App, index: usize, reason: String) -> Vec<Effect> {
-    let Some(snap) = app.shop.fixtures.get(index).cloned() else {
-        return Vec::new();
-    };
-    let by = app.operator.clone();
-    let id = snap.id.clone();
-    app.doc.put_fixture(snap);
-    clear_from_stack(app);
-    if let Some(a) = app.attempt_mut() {
-        a.fixture = Some(Choice {
-            id: id.clone(),
-            reason: reason.clone(),
-            by,
-            at: Stamp::now(),
-        });
-        a.step = Step::BlockSet;
-    }
-    let detail = if reason.is_empty() {
-        id.clone()
-    } else {
-        format!("{id} (calibration out of date: {reason})")
-    };
-    record(app, EventKind::FixtureChosen, detail);
-    app.say(Level::Done, format!("fixture {id} recorded"));
-    let mut e = vec![Effect::Save];
-    e.extend(enter_step(app, current_feature(app), Step::BlockSet));
-    e
-}
-
-// ---------------------------------------------------------------- block set
-
-pub fn enter_set(app: &mut App) {
-    app.ui.sets = list_sets(&app.shop, app.today);
-    let chosen = chosen_id(app, false);
-    app.ui.set_sel = chosen
-        .and_then(|id| {
-            app.ui
-                .sets
-                .iter()
-                .position(|o| app.shop.sets[o.index].snap.id == id)
-        })
-        .unwrap_or(0);
-}
-
-pub fn set_key(app: &mut App, input: Input) -> Vec<Effect> {
-    if input == Input::Act(Action::Forward) {
-        let Some(o) = app.ui.sets.get(app.ui.set_sel).cloned() else {
-            app.say(Level::Warn, "the shop has no block sets; add one to the shop file");
-            return Vec::new();
-        };
-        return choose_set(app, o.index, String::new());
-    }
-    move_sel(&mut app.ui.set_sel, app.ui.sets.len(), input);
-    Vec::new()
-}
-
-fn choose_set(app: &mut App, index: usize, reason: String) -> Vec<Effect> {
-    let Some(s) = app.shop.sets.get(index).cloned() else {
-        return Vec::new();
-    };
-    if chosen_id(app, false).as_deref() == Some(s.snap.id.as_str()) {
-        return enter_step(app, current_feature(app), Step::Stack);
-    }
-    if refuse_read_only(app) {
-        return Vec::new();
-    }
-    let stale = app.ui.sets.iter().any(|o| o.index == index && o.out_of_date);
-    if stale && reason.is_empty() {
-        app.prompt = Some(Prompt {
-            kind: PromptKind::SetReason(index),
-            title: format!("{}: calibration out of date", s.snap.id),
-            hint: "type why it is used anyway, then Enter; Esc to choose another".into(),
-            field: Some(Field::new(120)),
-            error: None,
-            carry: String::new(),
-        });
-        return Vec::new();
-    }
-    if chosen_id(app, false).is_some() && later_work(app) {
-        ask_redo(app, Redo::Set { index }, reason, &s.snap.id);
-        return Vec::new();
-    }
-    apply_set(app, index, reason)
-}
-
-pub fn answer_set_reason(app: &mut App, index: usize, reason: String) -> Result<Vec<Effect>, String> {
-    if reason.chars().count() < 3 {
-        return Err("a reason is needed (a few words), e.g. lead approved".into());
-    }
-    Ok(choose_set(app, index, reason))
-}
-
-fn apply_set(app: &mut App, index: usize, reason: String) -> Vec<Effect> {
-    let Some(set) = app.shop.sets.get(index).cloned() else {
-        return Vec::new();
-    };
-    let by = app.operator.clone();
-    let id = set.snap.id.clone();
-    app.doc.put_block_set(set.snap);
-    clear_from_stack(app);
-    if let Some(a) = app.attempt_mut() {
-        a.block_set = Some(Choice {
-            id: id.clone(),
-            reason: reason.clone(),
-            by,
-            at: Stamp::now(),
-        });
-        a.step = Step::Stack;
-    }
-    let detail = if reason.is_empty() {
-        id.clone()
-    } else {
-        format!("{id} (calibration out of date: {reason})")
-    };
-    record(app, EventKind::SetChosen, detail);
-    app.say(Level::Done, format!("block set {id} recorded"));
-    let mut e = vec![Effect::Save];
-    e.extend(enter_step(app, current_feature(app), Step::Stack));
-    e
-}
 
 // ---------------------------------------------------------------- stack
 
@@ -298,7 +18,12 @@ fn apply_set(app: &mut App, index: usize, reason: String) -> Vec<Effect> {
 pub fn target_height(app: &App) -> Result<Length, String> {
     let f = app.feature().ok_or("no feature is open")?;
     let a = f.current_attempt().ok_or("no attempt is open")?;
-    let fid = a.fixture.as_ref().ok_or("choose the fixture first")?.id.clone();
+    let fid = a
+        .fixture
+        .as_ref()
+        .ok_or("choose the fixture first")?
+        .id
+        .clone();
     let fx = app
         .doc
         .fixture(&fid)
@@ -312,8 +37,14 @@ pub fn target_height(app: &App) -> Result<Length, String> {
     let angle = f
         .setting_angle()
         .ok_or("this feature has no angle to set")?;
-    let p = plan(&geometry(fx), angle, height_step(app), fx.max_stack, app.unit())
-        .map_err(|e| e.to_string())?;
+    let p = plan(
+        &geometry(fx),
+        angle,
+        height_step(app),
+        fx.max_stack,
+        app.unit(),
+    )
+    .map_err(|e| e.to_string())?;
     Ok(p.direct.height)
 }
 
@@ -331,7 +62,7 @@ pub fn enter_stack(app: &mut App) -> Vec<Effect> {
     Vec::new()
 }
 
-fn set_of(app: &App) -> Option<&super::shop_view::SetView> {
+fn set_of(app: &App) -> Option<&super::super::shop_view::SetView> {
     let id = app.attempt()?.block_set.as_ref()?.id.clone();
     app.shop.set(&id)
 }
@@ -416,8 +147,13 @@ fn achieved_for(app: &App, height: Length) -> Result<Angle, String> {
         .and_then(|a| a.fixture.as_ref())
         .map(|c| c.id.clone())
         .ok_or("choose the fixture first")?;
-    let fx = app.doc.fixture(&fid).ok_or("the fixture is not in the traveller")?;
-    geometry(fx).angle_for_height(height).map_err(|e| e.to_string())
+    let fx = app
+        .doc
+        .fixture(&fid)
+        .ok_or("the fixture is not in the traveller")?;
+    geometry(fx)
+        .angle_for_height(height)
+        .map_err(|e| e.to_string())
 }
 
 /// May the stack still be changed? Not once the stack has settled or readings were taken on it.
@@ -425,7 +161,9 @@ fn stack_changeable(app: &mut App) -> bool {
     if refuse_read_only(app) {
         return false;
     }
-    let later = app.attempt().is_some_and(|a| a.settle.is_some() || a.sweep.is_some());
+    let later = app
+        .attempt()
+        .is_some_and(|a| a.settle.is_some() || a.sweep.is_some());
     if later {
         app.say(
             Level::Warn,
@@ -509,7 +247,10 @@ pub fn stack_key(app: &mut App, input: Input) -> Vec<Effect> {
                 return Vec::new();
             };
             if set.snap.protector.is_none() {
-                app.say(Level::Info, format!("the set {} has no protector blocks", set.snap.id));
+                app.say(
+                    Level::Info,
+                    format!("the set {} has no protector blocks", set.snap.id),
+                );
                 return Vec::new();
             }
             let any_wrung = app
@@ -581,7 +322,11 @@ fn confirm_stack(app: &mut App) -> Vec<Effect> {
     record(
         app,
         EventKind::StackBuilt,
-        format!("{} gives {}", stack.height.show(unit), stack.achieved.dms(1)),
+        format!(
+            "{} gives {}",
+            stack.height.show(unit),
+            stack.achieved.dms(1)
+        ),
     );
     let mut e = vec![Effect::Save];
     e.extend(enter_step(app, feature, Step::Safety));
@@ -596,9 +341,16 @@ pub fn answer_swap(app: &mut App, pos: usize, text: String) -> Result<Vec<Effect
         .attempt()
         .and_then(|a| a.stack.clone())
         .ok_or("there is no stack to change")?;
-    let planned = stack.blocks.get(pos).ok_or("no such block in the stack")?.size;
+    let planned = stack
+        .blocks
+        .get(pos)
+        .ok_or("no such block in the stack")?
+        .size;
     if used == planned {
-        return Err(format!("that is the size already listed ({}); type the size really wrung", used.show(unit)));
+        return Err(format!(
+            "that is the size already listed ({}); type the size really wrung",
+            used.show(unit)
+        ));
     }
     let others = stack
         .blocks
@@ -645,7 +397,10 @@ pub fn answer_swap(app: &mut App, pos: usize, text: String) -> Result<Vec<Effect
     );
     app.say(
         Level::Done,
-        format!("swap recorded: the angle is now worked out from {}", height.show(unit)),
+        format!(
+            "swap recorded: the angle is now worked out from {}",
+            height.show(unit)
+        ),
     );
     Ok(vec![Effect::Save])
 }

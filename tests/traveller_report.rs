@@ -1,0 +1,109 @@
+//! Reports: every format carries the same facts; flags show; HTML is standalone and escaped.
+
+use std::path::Path;
+use tiltbook::traveller::report::{Flag, Format, flags, render};
+use tiltbook::traveller::*;
+use tiltbook::units::{Angle, Tolerance};
+
+fn finished() -> Traveller {
+    let p = Path::new(env!("CARGO_MANIFEST_DIR")).join("sample-jobs/ds-204-finished.yaml");
+    parse(&std::fs::read_to_string(p).unwrap())
+        .unwrap()
+        .traveller
+}
+
+#[test]
+fn flags_of_the_finished_sample() {
+    let t = finished();
+    let f = |id: &str| flags(&t, t.feature(id).unwrap());
+    assert!(f("F1").is_empty());
+    assert!(matches!(f("F2").as_slice(), [Flag::CalibrationOutOfDate(w)] if w.contains("SC-10")));
+    assert_eq!(f("F4"), vec![Flag::DoubtBand]);
+    assert_eq!(f("F5"), vec![Flag::SwappedByHand, Flag::LargeStraightness]);
+}
+
+#[test]
+fn a_change_after_sign_off_is_flagged_in_the_report() {
+    let mut t = finished();
+    t.feature_mut("F1").unwrap().tolerance = Tolerance::symmetric(Angle::from_deg(0.2));
+    assert_eq!(
+        flags(&t, t.feature("F1").unwrap()),
+        vec![Flag::ChangedAfterSignOff(vec!["tolerance".into()])]
+    );
+    let text = render(&t, Format::Text);
+    assert!(text.contains("changed after sign-off: tolerance"), "{text}");
+}
+
+#[test]
+fn each_format_carries_the_feature_facts() {
+    let t = finished();
+    for fmt in [Format::Text, Format::Markdown, Format::Html] {
+        let r = render(&t, fmt);
+        // read the facts back as a person sees them
+        let r = match fmt {
+            Format::Html => r
+                .replace("&quot;", "\"")
+                .replace("&#39;", "'")
+                .replace("&lt;", "<")
+                .replace("&gt;", ">")
+                .replace("&amp;", "&"),
+            Format::Markdown => r.replace('\\', ""),
+            Format::Text => r,
+        };
+        for want in [
+            "J-2417",
+            "15°30'00.0\"",                                  // F3 nominal
+            "0.1002 + 0.1360 + 0.1000 + 1.0000 = 1.3362 in", // F3 stack
+            "-1155.2\"",                                     // F3 attempt 1 deviation
+            "FAIL",
+            "DOUBT",
+            "stack swapped by hand",
+            "calibration out of date: fixture SC-10 (due 2025-02-20)",
+            "inside the doubt band",
+            "large straightness",
+            "TJ, 2025-03-04 17:16",
+            "5 of 5 features finished",
+        ] {
+            assert!(r.contains(want), "{fmt:?} lacks {want}:\n{r}");
+        }
+    }
+}
+
+#[test]
+fn html_is_standalone_and_prints_on_a4_and_letter() {
+    let h = render(&finished(), Format::Html);
+    assert!(h.starts_with("<!DOCTYPE html>"));
+    assert!(h.contains("@page") && h.contains("@media print"));
+    // no page size is forced, so both A4 and Letter use their own
+    assert!(!h.contains("size: A4") && !h.contains("size: letter"));
+    for external in ["<link", "<script", "src=", "href=", "@import", "url("] {
+        assert!(!h.contains(external), "external asset: {external}");
+    }
+    assert_eq!(
+        h.matches("<section>").count(),
+        h.matches("</section>").count()
+    );
+}
+
+#[test]
+fn html_and_markdown_escape_what_people_typed() {
+    let mut t = finished();
+    t.job.part = "<script>alert('x')</script> & \"slide\"".into();
+    t.feature_mut("F1").unwrap().name = "flank | *not bold*".into();
+    let h = render(&t, Format::Html);
+    assert!(!h.contains("<script>"), "unescaped");
+    assert!(h.contains("&lt;script&gt;alert(&#39;x&#39;)&lt;/script&gt; &amp; &quot;slide&quot;"));
+    let m = render(&t, Format::Markdown);
+    assert!(m.contains("flank \\| \\*not bold\\*"), "{m}");
+}
+
+#[test]
+fn a_plan_reports_with_nothing_done() {
+    let p = Path::new(env!("CARGO_MANIFEST_DIR")).join("sample-jobs/ds-204-plan.yaml");
+    let t = parse(&std::fs::read_to_string(p).unwrap())
+        .unwrap()
+        .traveller;
+    let r = render(&t, Format::Text);
+    assert!(r.contains("0 of 5 features finished"), "{r}");
+    assert!(r.contains("taper 1:20"), "{r}");
+}

@@ -1,0 +1,138 @@
+//! Shared by the screen tests: an app on the demo plan and the built-in demo shop, with no
+//! terminal and no file (the runner counts saves instead of writing).
+#![allow(dead_code)]
+
+use tiltbook::cli::demo::DEMO_PLAN;
+use tiltbook::shop::Shop;
+use tiltbook::traveller::{self, Traveller};
+use tiltbook::tui::app::{App, Msg, Options};
+use tiltbook::tui::keymap::{Action, Input};
+use tiltbook::tui::shop_view::ShopView;
+use tiltbook::tui::{Runner, update};
+
+/// The fixed "today" of the tests: every demo calibration is in date.
+pub fn today() -> jiff::civil::Date {
+    jiff::civil::date(2026, 12, 1)
+}
+
+pub fn plan() -> Traveller {
+    traveller::parse(DEMO_PLAN)
+        .expect("demo plan reads")
+        .traveller
+}
+
+pub fn shop() -> ShopView {
+    ShopView::from_shop(&Shop::built_in())
+}
+
+/// An app and its runner, landed as `open` lands them.
+pub fn app_with(doc: Traveller, operator: Option<&str>, read_only: bool) -> (App, Runner) {
+    let opts = Options {
+        read_only,
+        color: false,
+        operator: operator.map(str::to_string),
+        file_label: "jobs/J-2417.yaml".into(),
+        today: today(),
+    };
+    let mut app = App::new(doc, shop(), opts);
+    let mut runner = Runner::new(None, shop());
+    update::update(&mut app, Msg::Resize(80, 24));
+    let first = update::land(&mut app);
+    runner.drain(&mut app, first);
+    (app, runner)
+}
+
+pub fn app() -> (App, Runner) {
+    app_with(plan(), Some("JQ"), false)
+}
+
+/// Send one input and run what it asks for.
+pub fn send(app: &mut App, runner: &mut Runner, input: Input) {
+    let effects = update::update(app, Msg::Key(input));
+    runner.drain(app, effects);
+}
+
+pub fn act(app: &mut App, runner: &mut Runner, a: Action) {
+    send(app, runner, Input::Act(a));
+}
+
+pub fn enter(app: &mut App, runner: &mut Runner) {
+    act(app, runner, Action::Forward);
+}
+
+pub fn esc(app: &mut App, runner: &mut Runner) {
+    act(app, runner, Action::Back);
+}
+
+pub fn typ(app: &mut App, runner: &mut Runner, text: &str) {
+    for c in text.chars() {
+        send(app, runner, Input::Typed(c));
+    }
+}
+
+pub fn clear_field(app: &mut App, runner: &mut Runner) {
+    for _ in 0..40 {
+        send(app, runner, Input::Erase);
+    }
+}
+
+/// From the overview of a fresh plan: open F1, take the first fixture and set.
+pub fn to_stack(app: &mut App, runner: &mut Runner) {
+    enter(app, runner); // open F1
+    enter(app, runner); // first ranked fixture
+    enter(app, runner); // first set: the stack is solved
+}
+
+/// Tick every block and confirm the stack.
+pub fn build_stack(app: &mut App, runner: &mut Runner) {
+    let n = app
+        .attempt()
+        .and_then(|a| a.stack.as_ref())
+        .map_or(0, |s| s.blocks.len());
+    for _ in 0..n {
+        act(app, runner, Action::Tick);
+    }
+    enter(app, runner);
+}
+
+/// From the overview to the readings of F1 (stack built, cautions confirmed, wait skipped).
+pub fn to_readings(app: &mut App, runner: &mut Runner) {
+    to_stack(app, runner);
+    build_stack(app, runner);
+    enter(app, runner); // safety confirmed
+    act(app, runner, Action::Skip);
+    enter(app, runner); // to readings
+}
+
+/// Type the travel, the count and each reading, with Enter after each.
+pub fn readings(app: &mut App, runner: &mut Runner, travel: &str, values: &[&str]) {
+    typ(app, runner, travel);
+    enter(app, runner);
+    typ(app, runner, &values.len().to_string());
+    enter(app, runner);
+    for v in values {
+        typ(app, runner, v);
+        enter(app, runner);
+    }
+}
+
+/// The step on screen, when in a feature's flow.
+pub fn step(app: &App) -> Option<tiltbook::traveller::Step> {
+    app.flow().map(|(_, s)| s)
+}
+
+/// How many events of a kind the log holds.
+pub fn events(app: &App, kind: tiltbook::traveller::EventKind) -> usize {
+    app.doc.events.iter().filter(|e| e.kind == kind).count()
+}
+
+/// The traveller as saved must read back clean, or it could not be opened again.
+pub fn assert_reopens(app: &App) {
+    let text = traveller::to_yaml(&app.doc).expect("the job renders");
+    let loaded = traveller::parse(&text).expect("the saved job reads back");
+    let problems = traveller::validate(&loaded.traveller, &loaded.locator);
+    assert!(
+        problems.is_empty(),
+        "the saved job has problems: {problems:#?}\n{text}"
+    );
+}
