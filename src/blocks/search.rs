@@ -82,10 +82,7 @@ impl<'a> Search<'a> {
                 continue;
             }
             let res = self.residues(Some(j));
-            let needing = live
-                .iter()
-                .filter(|&&t| res[t % m] == UNREACHABLE)
-                .count();
+            let needing = live.iter().filter(|&&t| res[t % m] == UNREACHABLE).count();
             if needing >= 2 {
                 return true;
             }

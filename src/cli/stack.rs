@@ -162,7 +162,7 @@ fn stack_text(stack: &Stack, chosen: &Chosen) -> String {
         ));
     }
     t.push_str(&format!(
-        "  total {} {unit} in {} block{}\n",
+        "  total {} {unit}, {} block{}\n",
         num(stack.height, unit),
         n,
         if n == 1 { "" } else { "s" }
