@@ -24,7 +24,9 @@
 //! first, that only steps into a remainder the table says can still be finished within the
 //! budget. The table is exact for the whole set, so the search starts at the optimum and never
 //! has to prove a longer stack; it only backs out when the table's stack for a remainder needs
-//! a block already in use.
+//! a block already in use. Several heights raise the total budget one step at a time from the
+//! sum of their single-height optima (up to [`EXTRA_BLOCKS`] more blocks), with a second bound
+//! for the later stacks over the blocks still free (see `search.rs`).
 
 pub use super::solve_error::{Nearest, SolveError};
 
@@ -239,7 +241,7 @@ impl Solver {
 
     /// The fewest blocks (protectors included) that make `height`, if it can be made.
     pub fn fewest(&self, height: Length) -> Option<usize> {
-        let inner = height.nm() - self.ends();
+        let inner = height.nm().saturating_sub(self.ends());
         if height.nm() <= 0 || inner < 0 || inner % self.p.step != 0 {
             return None;
         }
@@ -344,7 +346,7 @@ impl Solver {
         }
         let step = self.p.step;
         let ends = self.ends();
-        let inner = h.nm() - ends;
+        let inner = h.nm().saturating_sub(ends);
         let max = (self.p.table.len() - 1) as i64;
         let nearest = || self.nearest(h);
         let smallest_inner = if self.protect {
@@ -391,13 +393,13 @@ impl Solver {
     pub fn nearest(&self, h: Length) -> Nearest {
         let step = self.p.step;
         let ends = self.ends();
-        let inner = h.nm() - ends;
+        let inner = h.nm().saturating_sub(ends);
         let max = (self.p.table.len() - 1) as i64;
         let lowest = if self.protect { 0 } else { 1 };
         let ok = |i: i64| self.p.table[i as usize] != UNREACHABLE;
         let to_len = |i: i64| Length::from_nm(i * step + ends);
         // below: the largest index i with i*step < inner
-        let mut i = (inner - 1).div_euclid(step).min(max);
+        let mut i = inner.saturating_sub(1).div_euclid(step).min(max);
         let mut below = None;
         while i >= lowest {
             if ok(i) {
@@ -407,7 +409,7 @@ impl Solver {
             i -= 1;
         }
         // above: the smallest index i with i*step > inner
-        let mut i = inner.div_euclid(step) + 1;
+        let mut i = inner.div_euclid(step).saturating_add(1);
         i = i.max(lowest);
         let mut above = None;
         while i <= max {
