@@ -199,6 +199,40 @@ pub enum Change {
     FeatureGone(String),
 }
 
+/// The return that withdrew a sign-off: a later return of its feature or of the whole job (any
+/// later return, for a job sign-off). Work done after a return is signed again; the withdrawn
+/// sign-off stays in the record but is no longer compared with the traveller.
+pub fn withdrawn_by<'a>(t: &'a Traveller, s: &SignOff) -> Option<&'a Return> {
+    t.returns.iter().rev().find(|r| {
+        let covers = match s.scope {
+            Scope::Job => true,
+            Scope::Feature => r.feature.is_none() || r.feature == s.feature,
+        };
+        covers && returned_after(t, r, s)
+    })
+}
+
+/// Did return `r` come after sign-off `s`? Times are whole seconds: within the same second the
+/// event log's order decides.
+fn returned_after(t: &Traveller, r: &Return, s: &SignOff) -> bool {
+    if r.at.timestamp() != s.at.timestamp() {
+        return r.at.timestamp() > s.at.timestamp();
+    }
+    let signed = t.events.iter().position(|e| {
+        e.kind == EventKind::Signed && e.at == s.at && e.by.trim() == s.by && e.feature == s.feature
+    });
+    let returned = t.events.iter().rposition(|e| {
+        e.kind == EventKind::Returned
+            && e.at == r.at
+            && e.by == r.by
+            && (r.feature.is_none() || e.feature == r.feature)
+    });
+    match (signed, returned) {
+        (Some(a), Some(b)) => b > a,
+        _ => true,
+    }
+}
+
 /// Compare a sign-off with the traveller as it is now.
 pub fn verify(t: &Traveller, s: &SignOff) -> Vec<Change> {
     let now = match digests_for(t, s.scope, s.feature.as_deref()) {
@@ -227,4 +261,66 @@ pub fn verify(t: &Traveller, s: &SignOff) -> Vec<Change> {
         }
     }
     out
+}
+
+#[cfg(test)]
+mod tests {
+    use super::*;
+    use crate::units::{Angle, Tolerance};
+
+    fn signed_job() -> Traveller {
+        let tol = Tolerance::symmetric(Angle::from_deg(5.0 / 60.0));
+        let mut t = Traveller::plan(
+            Job::default(),
+            vec![Feature::plain("F1", "flank", Angle::from_deg(30.0), tol)],
+        );
+        t.features[0].state = FeatureState::Judged;
+        t
+    }
+
+    #[test]
+    fn a_return_after_signing_withdraws_the_sign_off_and_a_later_one_stands() {
+        let at = Stamp::parse("2025-03-04T08:00:00Z").unwrap();
+        let mut t = signed_job();
+        t.sign("KM", Role::Operator, Scope::Feature, Some("F1"), at)
+            .unwrap();
+        assert!(withdrawn_by(&t, &t.signoffs[0]).is_none());
+        // same second: the log's order says the return came after
+        t.add_return_at(at, "LV", Some("F1"), "sweep again");
+        assert_eq!(t.features[0].state, FeatureState::Returned);
+        assert!(withdrawn_by(&t, &t.signoffs[0]).is_some());
+        t.features[0].name = "flank, reworked".into();
+        assert!(!verify(&t, &t.signoffs[0]).is_empty(), "it did change");
+        let later = Stamp::parse("2025-03-04T09:00:00Z").unwrap();
+        t.sign("KM", Role::Operator, Scope::Feature, Some("F1"), later)
+            .unwrap();
+        assert!(withdrawn_by(&t, &t.signoffs[1]).is_none());
+        assert!(verify(&t, &t.signoffs[1]).is_empty());
+    }
+
+    #[test]
+    fn a_job_return_sends_back_finished_features_each_with_an_event() {
+        let at = Stamp::parse("2025-03-04T08:00:00Z").unwrap();
+        let mut t = signed_job();
+        let tol = Tolerance::symmetric(Angle::from_deg(5.0 / 60.0));
+        t.features
+            .push(Feature::plain("F2", "gib", Angle::from_deg(5.0), tol));
+        t.sign("KM", Role::Operator, Scope::Feature, Some("F1"), at)
+            .unwrap();
+        t.add_return_at(at, "LV", None, "redo the job sheet");
+        assert_eq!(t.features[0].state, FeatureState::Returned);
+        assert_eq!(
+            t.features[1].state,
+            FeatureState::Planned,
+            "unfinished: untouched"
+        );
+        let returned: Vec<_> = t
+            .events
+            .iter()
+            .filter(|e| e.kind == EventKind::Returned)
+            .map(|e| e.feature.clone())
+            .collect();
+        assert_eq!(returned, vec![Some("F1".to_string())]);
+        assert!(withdrawn_by(&t, &t.signoffs[0]).is_some());
+    }
 }

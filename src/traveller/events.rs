@@ -149,8 +149,14 @@ impl Traveller {
     }
 
     /// Send a feature (or the whole job) back with a comment; the feature becomes `returned`.
+    /// Sending the whole job back returns every finished feature (signed or nonconforming);
+    /// each returned feature gets its own event, so the log and the states agree.
     pub fn add_return(&mut self, by: &str, feature: Option<&str>, comment: &str) {
-        let at = Stamp::now();
+        self.add_return_at(Stamp::now(), by, feature, comment);
+    }
+
+    /// [`Traveller::add_return`] at a given time.
+    pub fn add_return_at(&mut self, at: Stamp, by: &str, feature: Option<&str>, comment: &str) {
         self.returns.push(Return {
             feature: feature.map(str::to_string),
             comment: comment.to_string(),
@@ -159,12 +165,22 @@ impl Traveller {
         });
         let ids: Vec<String> = match feature {
             Some(id) => vec![id.to_string()],
-            None => self.features.iter().map(|f| f.id.clone()).collect(),
+            None => self
+                .features
+                .iter()
+                .filter(|f| f.is_finished())
+                .map(|f| f.id.clone())
+                .collect(),
         };
         for f in self.features.iter_mut().filter(|f| ids.contains(&f.id)) {
             f.state = FeatureState::Returned;
         }
-        self.log_at(at, by, EventKind::Returned, feature, None, comment);
+        if ids.is_empty() {
+            self.log_at(at, by, EventKind::Returned, None, None, comment);
+        }
+        for id in &ids {
+            self.log_at(at, by, EventKind::Returned, Some(id), None, comment);
+        }
     }
 }
 

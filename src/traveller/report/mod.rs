@@ -123,7 +123,11 @@ pub fn flags(t: &Traveller, f: &Feature) -> Vec<Flag> {
 /// The fields of `f` changed since any sign-off covering it.
 pub fn changed_fields(t: &Traveller, f: &Feature) -> Vec<String> {
     let mut out: Vec<String> = Vec::new();
-    for s in &t.signoffs {
+    for s in t
+        .signoffs
+        .iter()
+        .filter(|s| digest::withdrawn_by(t, s).is_none())
+    {
         let prefix = match s.scope {
             Scope::Feature if s.feature.as_deref() == Some(f.id.as_str()) => String::new(),
             Scope::Job => format!("{}.", f.id),

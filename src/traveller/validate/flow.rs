@@ -182,6 +182,10 @@ fn signoff(t: &Traveller, s: &SignOff, p: &str, out: &mut Out) {
             "a job sign-off covers every feature; remove `feature:` or set `scope: feature`",
         );
     }
+    if digest::withdrawn_by(t, s).is_some() {
+        // sent back by a lead after signing: the work is redone and signed again
+        return;
+    }
     for c in digest::verify(t, s) {
         match c {
             Change::FeatureGone(id) => out.at(&format!("{p}.feature"), format!("sign-off names feature `{id}`, which is not in this job; the feature was removed or renamed after signing: restore it")),
