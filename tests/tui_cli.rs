@@ -92,3 +92,34 @@ fn demo_writes_the_plan_in_the_data_folder_and_says_where() {
     let _ = tiltbook(&["demo"], &data);
     assert_eq!(std::fs::read_dir(&data).unwrap().count(), 2);
 }
+
+#[test]
+fn a_value_changed_after_sign_off_does_not_stop_the_job_opening() {
+    // the record is whole: the review flags the change for the lead (`check` still lists it)
+    let dir = tempfile::tempdir().unwrap();
+    let f = dir.path().join("changed.yaml");
+    let finished = std::fs::read_to_string(
+        std::path::Path::new(env!("CARGO_MANIFEST_DIR")).join("sample-jobs/ds-204-finished.yaml"),
+    )
+    .unwrap();
+    std::fs::write(
+        &f,
+        finished.replacen("tolerance: ±0°05'", "tolerance: ±0°06'", 1),
+    )
+    .unwrap();
+    let (code, _, err) = tiltbook(
+        &["open", f.to_str().unwrap(), "--review", "--read-only"],
+        dir.path(),
+    );
+    assert_eq!(code, 2, "{err}");
+    assert!(
+        err.contains("needs a terminal") && !err.contains("problem"),
+        "{err}"
+    );
+    let (code, out, err) = tiltbook(&["check", f.to_str().unwrap()], dir.path());
+    assert_eq!(code, 1, "{out}{err}");
+    assert!(
+        format!("{out}{err}").contains("changed after sign-off"),
+        "{out}{err}"
+    );
+}

@@ -107,8 +107,19 @@ fn quitting_mid_step_loses_nothing_and_reopening_returns_there() {
     enter(&mut app, &mut r);
     typ(&mut app, &mut r, "0.00"); // typed, not confirmed
     let effects = update(&mut app, Msg::Key(Input::Act(Action::Quit)));
+    assert_eq!(
+        effects,
+        vec![],
+        "work is unfinished: a note for the next shift is asked first"
+    );
+    assert!(matches!(
+        app.prompt.as_ref().map(|p| &p.kind),
+        Some(PromptKind::Handover)
+    ));
+    // asked again (Ctrl-C in the note), it leaves without a note
+    let effects = update(&mut app, Msg::Key(Input::Act(Action::Quit)));
     assert_eq!(effects, vec![Effect::Quit]);
-    assert!(app.quit);
+    assert!(app.quit && app.doc.handovers.is_empty());
     // what a save writes, read back as a reopen reads it
     let text = traveller::to_yaml(&app.doc).unwrap();
     let doc = traveller::parse(&text).unwrap().traveller;
@@ -130,10 +141,21 @@ fn quitting_works_from_every_screen_and_overlay() {
     to_stack(&mut app, &mut r);
     act(&mut app, &mut r, Action::Swap); // a prompt is open
     let effects = update(&mut app, Msg::Key(Input::Act(Action::Quit)));
-    assert_eq!(effects, vec![Effect::Quit]);
+    assert_eq!(effects, vec![]);
+    assert!(matches!(
+        app.prompt.as_ref().map(|p| &p.kind),
+        Some(PromptKind::Handover)
+    ));
+    // Esc skips the note and quits
+    assert_eq!(
+        update(&mut app, Msg::Key(Input::Act(Action::Back))),
+        vec![Effect::Quit]
+    );
     let (mut app, _) = tui_support::app();
     update(&mut app, Msg::Key(Input::Act(Action::Help)));
     assert!(app.help);
+    assert_eq!(update(&mut app, Msg::Key(Input::Act(Action::Quit))), vec![]);
+    assert!(!app.help, "the note's question replaces the help");
     assert_eq!(
         update(&mut app, Msg::Key(Input::Act(Action::Quit))),
         vec![Effect::Quit]

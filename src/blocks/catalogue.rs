@@ -179,6 +179,19 @@ impl Grade {
             Grade::Asme00 => None,
         }
     }
+
+    /// The tolerance class the uncertainty budget uses for this grade (`None` for ASME 00, whose
+    /// limits are not in the table tiltbook carries; the budget then needs a calibrated value).
+    pub fn tolerance_class(self) -> Option<crate::uncertainty::Grade> {
+        use crate::uncertainty::Grade as Class;
+        match self {
+            Grade::IsoK | Grade::AsmeK => Some(Class::K),
+            Grade::Iso0 | Grade::Asme0 => Some(Class::Zero),
+            Grade::Iso1 | Grade::AsmeAs1 => Some(Class::One),
+            Grade::Iso2 | Grade::AsmeAs2 => Some(Class::Two),
+            Grade::Asme00 => None,
+        }
+    }
 }
 
 impl fmt::Display for Grade {

@@ -222,6 +222,11 @@ impl Solver {
         &self.p.set_id
     }
 
+    /// The unit the set's blocks are marked in.
+    pub fn unit(&self) -> Unit {
+        self.p.unit
+    }
+
     /// The common step of the set's sizes (every buildable height is a whole number of steps).
     pub fn step(&self) -> Length {
         Length::from_nm(self.p.step)

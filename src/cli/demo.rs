@@ -87,6 +87,8 @@ pub fn run(args: &DemoArgs, out: &mut dyn Write) -> Result<ExitCode, CliError> {
             file: path,
             as_name: args.as_name.clone(),
             read_only: false,
+            review: false,
+            take_over: false,
             color: args.color.clone(),
             shop: args.shop.clone(),
         },

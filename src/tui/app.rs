@@ -19,6 +19,12 @@ pub enum Screen {
     Name,
     /// One step of one feature's flow.
     Flow { feature: usize, step: Step },
+    /// Handover notes and return comments left for this person: shown before anything else.
+    Notice,
+    /// The lead's review: every feature with its state, attempts and flags.
+    Review,
+    /// One feature under review: its attempts in order, stack, readings, chart and budget.
+    ReviewFeature { feature: usize },
 }
 
 /// A one-line question over a screen.
@@ -34,6 +40,12 @@ pub enum PromptKind {
     Nonconforming,
     /// A change that clears later work of the attempt: yes or no.
     Redo(Redo),
+    /// The optional note for the next shift, asked on quitting with work unfinished.
+    Handover,
+    /// The lead signs a feature (by index) or the whole job (None): yes or no.
+    LeadSign(Option<usize>),
+    /// The lead's comment sending a feature (by index) or the whole job (None) back.
+    Return(Option<usize>),
 }
 
 /// An earlier choice changed after later work was done.
@@ -113,6 +125,20 @@ pub struct Ui {
     pub solving: bool,
     /// The last solver refusal, with its remedies.
     pub solve_error: Option<String>,
+    pub review: ReviewUi,
+}
+
+/// Cursors of the review screens.
+#[derive(Debug, Clone, Default, PartialEq, Eq)]
+pub struct ReviewUi {
+    /// The selected feature (an index into the job's features).
+    pub sel: usize,
+    /// Show only the flagged features.
+    pub flagged_only: bool,
+    /// The attempt shown on the feature page (an index into its attempts).
+    pub attempt: usize,
+    /// Lines scrolled on the feature page.
+    pub scroll: u16,
 }
 
 /// Messages `update` acts on.
@@ -165,6 +191,8 @@ pub struct Options {
     /// The file as the operator knows it, for the title line.
     pub file_label: String,
     pub today: Date,
+    /// Opened for the lead's review (`--review`).
+    pub review: bool,
 }
 
 /// The whole model.
@@ -181,6 +209,13 @@ pub struct App {
     pub screen: Screen,
     /// Where the Name screen leads once answered.
     pub after_name: Screen,
+    /// Opened for the lead's review: the operator's flow is not offered.
+    pub review_mode: bool,
+    /// The handover notes and return comments have been shown (and, once the name is known,
+    /// the notes marked read).
+    pub notice_seen: bool,
+    /// Handover notes shown but not yet marked read (the name was not known yet).
+    pub notice_unmarked: bool,
     pub help: bool,
     pub prompt: Option<Prompt>,
     pub status: Option<Status>,
@@ -247,6 +282,9 @@ impl App {
             today: opts.today,
             screen: Screen::Overview,
             after_name: Screen::Overview,
+            review_mode: opts.review,
+            notice_seen: false,
+            notice_unmarked: false,
             help: false,
             prompt: None,
             status: None,
@@ -299,12 +337,19 @@ impl App {
 
     /// The context of the screen (or prompt) under the help overlay: what the help explains.
     pub fn screen_ctx(&self) -> Ctx {
-        if self.prompt.is_some() {
-            return Ctx::Prompt;
+        if let Some(p) = &self.prompt {
+            return if p.kind == PromptKind::Handover {
+                Ctx::Handover
+            } else {
+                Ctx::Prompt
+            };
         }
         match self.screen {
             Screen::Overview => Ctx::Overview,
             Screen::Name => Ctx::Name,
+            Screen::Notice => Ctx::Notice,
+            Screen::Review => Ctx::Review,
+            Screen::ReviewFeature { .. } => Ctx::ReviewFeature,
             Screen::Flow { step, .. } => match step {
                 Step::Fixture => Ctx::Fixture,
                 Step::BlockSet => Ctx::BlockSet,

@@ -19,6 +19,14 @@ pub enum Ctx {
     Sign,
     /// A one-line text prompt over a screen (reason, note, swapped block).
     Prompt,
+    /// The note for the next shift, asked on quitting.
+    Handover,
+    /// Handover notes and return comments shown on opening.
+    Notice,
+    /// The lead's review: the list of features.
+    Review,
+    /// The lead's review: one feature's attempts.
+    ReviewFeature,
     Help,
 }
 
@@ -55,6 +63,18 @@ pub enum Action {
     NewAttempt,
     /// After a fail: record the feature as nonconforming, with a note.
     Nonconforming,
+    /// From the overview: the review of every feature.
+    Review,
+    /// Review: show only the flagged features (again for all).
+    Filter,
+    /// Review: the lead signs the selected feature.
+    SignFeature,
+    /// Review: the lead signs the whole job.
+    SignJob,
+    /// Review: send the selected feature back with a comment.
+    ReturnFeature,
+    /// Review: send the whole job back with a comment.
+    ReturnJob,
 }
 
 /// A key as the keymap names it.
@@ -105,6 +125,7 @@ const fn ch(c: char) -> Key {
 }
 const LISTS: &[Ctx] = &[
     C::Overview,
+    C::Review,
     C::Fixture,
     C::BlockSet,
     C::Stack,
@@ -127,10 +148,16 @@ pub const KEYMAP: &[Binding] = &[
     b(&[ENTER], Action::Forward, "do this", "Do the selected choice", &[C::Verdict], true),
     b(&[ENTER], Action::Forward, "sign", "Sign the feature with the name typed", &[C::Sign], true),
     b(&[ENTER], Action::Forward, "confirm", "Confirm what was typed", &[C::Prompt], true),
+    b(&[ENTER], Action::Forward, "leave note, quit", "Save the note for the next shift and quit (an empty note quits without one)", &[C::Handover], true),
+    b(&[ENTER], Action::Forward, "go on", "These have been read: go on to the work", &[C::Notice], true),
+    b(&[ENTER, Key::Code(KeyCode::Right)], Action::Forward, "attempts", "Show the selected feature: every attempt, the stack, readings, chart and budget", &[C::Review], true),
     b(&[ENTER], Action::Back, "close", "Close the help", &[C::Help], false),
     // Esc: back.
     b(&[ESC], Action::Back, "back", "Go back one step; every step can be seen again until the feature is signed", &[C::Fixture, C::BlockSet, C::Stack, C::Safety, C::Settle, C::Readings, C::Verdict, C::Sign], true),
     b(&[ESC], Action::Back, "cancel", "Cancel and go back", &[C::Prompt, C::Name], true),
+    b(&[ESC], Action::Back, "quit, no note", "Quit without a note", &[C::Handover], true),
+    b(&[ESC], Action::Back, "overview", "Back to the job overview", &[C::Review], true),
+    b(&[ESC], Action::Back, "list", "Back to the list of features", &[C::ReviewFeature], true),
     b(&[ESC, ch('?'), Key::Code(KeyCode::F(1))], Action::Back, "close", "Close the help", &[C::Help], true),
     // Moving.
     b(&[Key::Code(KeyCode::Up), ch('k')], Action::Up, "select", "Move the selection up", LISTS, true),
@@ -141,6 +168,12 @@ pub const KEYMAP: &[Binding] = &[
     b(&[Key::Code(KeyCode::PageDown)], Action::PageDown, "", "Page down", LISTS, false),
     b(&[Key::Code(KeyCode::Left)], Action::Left, "", "Previous choice", &[C::Verdict], false),
     b(&[Key::Code(KeyCode::Right)], Action::Right, "", "Next choice", &[C::Verdict], false),
+    b(&[Key::Code(KeyCode::Left)], Action::Left, "attempt", "Show the previous attempt (→ the next)", &[C::ReviewFeature], true),
+    b(&[Key::Code(KeyCode::Right)], Action::Right, "", "Show the next attempt", &[C::ReviewFeature], false),
+    b(&[Key::Code(KeyCode::Up), ch('k')], Action::Up, "scroll", "Scroll the attempt up or down (↑ and ↓)", &[C::ReviewFeature], true),
+    b(&[Key::Code(KeyCode::Down), ch('j')], Action::Down, "", "Scroll the attempt down", &[C::ReviewFeature], false),
+    b(&[Key::Code(KeyCode::PageUp)], Action::PageUp, "", "Scroll a page up", &[C::ReviewFeature], false),
+    b(&[Key::Code(KeyCode::PageDown)], Action::PageDown, "", "Scroll a page down", &[C::ReviewFeature], false),
     b(&[Key::Code(KeyCode::Tab)], Action::NextField, "next field", "Go to the next field", &[C::Readings], true),
     b(&[Key::Code(KeyCode::Tab)], Action::Down, "", "Next in the list", LISTS, false),
     b(&[Key::Code(KeyCode::BackTab)], Action::Up, "", "Previous in the list", LISTS, false),
@@ -154,6 +187,12 @@ pub const KEYMAP: &[Binding] = &[
     b(&[Key::Code(KeyCode::F(2))], Action::Mode, "spacing/pairs", "Switch between fixed spacing over a travel and position/reading pairs (before the first reading)", &[C::Readings], true),
     b(&[ch('n')], Action::NewAttempt, "new attempt", "After a fail: a new attempt with the corrected stack", &[C::Verdict], true),
     b(&[ch('x')], Action::Nonconforming, "nonconforming", "After a fail: record the feature as nonconforming, with a note", &[C::Verdict], true),
+    b(&[ch('v')], Action::Review, "review", "Review every feature: attempts, readings, budget and flags; the lead signs or returns from there", &[C::Overview], true),
+    b(&[ch('f')], Action::Filter, "flagged only", "Show only the flagged features (again shows all)", &[C::Review], true),
+    b(&[ch('s')], Action::SignFeature, "sign feature", "Sign the selected feature as lead (asks to confirm)", &[C::Review, C::ReviewFeature], true),
+    b(&[ch('S')], Action::SignJob, "sign job", "Sign the whole job as lead (asks to confirm; every feature must be finished)", &[C::Review, C::ReviewFeature], true),
+    b(&[ch('r')], Action::ReturnFeature, "return", "Send the selected feature back to the operator with a comment", &[C::Review, C::ReviewFeature], true),
+    b(&[ch('R')], Action::ReturnJob, "return job", "Send the whole job (every finished feature) back with a comment", &[C::Review, C::ReviewFeature], true),
     // Everywhere.
     b(&[ch('?'), Key::Code(KeyCode::F(1))], Action::Help, "help", "Show every key for this screen", &[], true),
     b(&[ch('q'), Key::Ctrl('c'), Key::Ctrl('q')], Action::Quit, "quit", "Quit; everything confirmed is already saved, and reopening returns to this step", &[], true),
@@ -230,6 +269,9 @@ pub fn key_name(k: Key) -> String {
 fn footer_keys(bd: &Binding, typing: bool) -> String {
     if bd.action == Action::Up {
         return "↑↓".into();
+    }
+    if bd.action == Action::Left {
+        return "←→".into();
     }
     let usable: Vec<Key> = bd
         .keys

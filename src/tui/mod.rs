@@ -7,8 +7,10 @@
 
 pub mod app;
 pub mod chrome;
+pub mod clash;
 pub mod effects;
 pub mod field;
+pub mod flags;
 pub mod flow;
 pub mod judge;
 pub mod keymap;
@@ -30,6 +32,33 @@ use crossterm::event::{self, Event};
 use std::io;
 use std::time::{Duration, Instant};
 
+/// When the terminal is closed (SIGHUP) or the process is asked to stop (SIGTERM), release this
+/// process's locks and leave. Everything confirmed is already saved (saves are atomic), so
+/// leaving at once loses nothing. It runs on a thread of its own because a closed terminal can
+/// keep the main thread reading forever. Where these signals do not exist nothing is installed
+/// (the lock is still released on every other way out).
+fn watch_for_hangup() {
+    #[cfg(unix)]
+    {
+        use signal_hook::consts::{SIGHUP, SIGTERM};
+        // best effort: without the watcher the signal ends the process as it always did
+        if let Ok(mut signals) = signal_hook::iterator::Signals::new([SIGHUP, SIGTERM]) {
+            let _ = std::thread::Builder::new()
+                .name("hangup".into())
+                .spawn(move || {
+                    if let Some(sig) = signals.forever().next() {
+                        crate::store::release_all_locks();
+                        if sig == SIGTERM {
+                            // the terminal is still there: give it back as it was
+                            ratatui::restore();
+                        }
+                        std::process::exit(128 + sig);
+                    }
+                });
+        }
+    }
+}
+
 /// Install the hook that releases this process's locks on a panic. Call before
 /// `ratatui::try_init`, whose own hook restores the terminal first and then calls this one; the
 /// traveller on disk is left as last saved (saves are atomic).
@@ -50,6 +79,7 @@ pub fn interactive() -> bool {
 /// Run the screens until the operator quits. The terminal is restored on every way out.
 pub fn run(mut app: App, mut runner: Runner) -> io::Result<()> {
     install_lock_hook();
+    watch_for_hangup();
     let mut terminal = ratatui::try_init()?;
     let result = event_loop(&mut terminal, &mut app, &mut runner);
     ratatui::restore();

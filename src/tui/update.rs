@@ -4,15 +4,18 @@
 use super::app::{App, Effect, Level, Msg, Prompt, PromptKind, Screen, prev_step};
 use super::chrome::{MIN_H, MIN_W};
 use super::field::Field;
-use super::flow::{choose, readings, settle, stack, verdict};
+use super::flow::{choose, readings, review, settle, shift, stack, verdict};
 use super::keymap::{Action, Input};
 use crate::traveller::{EventKind, FeatureState, Stamp, Step};
+
+pub use super::flow::shift::wants_handover;
 
 /// Apply one message; return the work the effect runner must do.
 pub fn update(app: &mut App, msg: Msg) -> Vec<Effect> {
     match msg {
         Msg::Resize(w, h) => {
             app.size = (w, h);
+            review::resized(app);
             Vec::new()
         }
         Msg::Tick(secs) => settle::tick(app, secs),
@@ -42,7 +45,7 @@ fn key(app: &mut App, input: Input) -> Vec<Effect> {
     if w < MIN_W || h < MIN_H {
         // nothing is done blind on a screen too small to show it
         return match input {
-            Input::Act(Action::Quit) => quit(app),
+            Input::Act(Action::Quit) => quit_now(app),
             _ => Vec::new(),
         };
     }
@@ -73,11 +76,25 @@ fn key(app: &mut App, input: Input) -> Vec<Effect> {
         Screen::Overview => overview_key(app, input),
         Screen::Name => name_key(app, input),
         Screen::Flow { feature, step } => flow_key(app, feature, step, input),
+        Screen::Notice => shift::notice_key(app, input),
+        Screen::Review => review::review_key(app, input),
+        Screen::ReviewFeature { feature } => review::feature_key(app, feature, input),
     }
 }
 
-/// Leave: everything confirmed is already saved. (A handover prompt will come before this.)
+/// The one way out: everything confirmed is already saved. With work unfinished the operator
+/// is first asked for a note for the next shift; asked again (or Esc), it leaves.
 pub fn quit(app: &mut App) -> Vec<Effect> {
+    if shift::wants_handover(app) {
+        shift::ask_handover(app);
+        return Vec::new();
+    }
+    quit_now(app)
+}
+
+/// Leave now: release the lock and stop.
+pub fn quit_now(app: &mut App) -> Vec<Effect> {
+    app.prompt = None;
     app.quit = true;
     vec![Effect::Quit]
 }
@@ -92,6 +109,7 @@ fn overview_key(app: &mut App, input: Input) -> Vec<Effect> {
         Input::Act(Action::PageUp) => app.ui.overview_sel = 0,
         Input::Act(Action::PageDown) => app.ui.overview_sel = n.saturating_sub(1),
         Input::Act(Action::Forward) => return open_feature(app, app.ui.overview_sel),
+        Input::Act(Action::Review) => review::enter_review(app, app.ui.overview_sel),
         _ => {}
     }
     Vec::new()
@@ -110,12 +128,25 @@ fn name_key(app: &mut App, input: Input) -> Vec<Effect> {
                 return Vec::new();
             }
             app.operator = app.ui.name.trimmed().to_string();
-            app.say(Level::Info, format!("working as {}", app.operator));
+            let verb = if app.review_mode {
+                "reviewing"
+            } else {
+                "working"
+            };
+            app.say(Level::Info, format!("{verb} as {}", app.operator));
+            let mut effects = if app.notice_unmarked {
+                shift::mark_read(app)
+            } else {
+                Vec::new()
+            };
             let next = app.after_name;
             app.screen = Screen::Overview;
-            if let Screen::Flow { feature, .. } = next {
-                return open_feature(app, feature);
+            match next {
+                Screen::Flow { feature, .. } => effects.extend(open_feature(app, feature)),
+                Screen::Review => review::enter_review(app, app.ui.overview_sel),
+                _ => {}
             }
+            return effects;
         }
         Input::Act(Action::Back) => app.say(
             Level::Warn,
@@ -179,7 +210,17 @@ pub fn open_feature(app: &mut App, index: usize) -> Vec<Effect> {
         overview_sel: index,
         ..Default::default()
     };
-    let step = if step == Step::Done { Step::Sign } else { step };
+    let returned = app
+        .doc
+        .features
+        .get(index)
+        .is_some_and(|f| f.state == FeatureState::Returned);
+    let step = match step {
+        // sent back by the lead: the verdict, from where a new attempt or a new signature goes
+        Step::Verdict | Step::Sign | Step::Done if returned => Step::Verdict,
+        Step::Done => Step::Sign,
+        s => s,
+    };
     effects.extend(enter_step(app, index, step));
     effects
 }
@@ -262,6 +303,7 @@ fn prompt_key(app: &mut App, input: Input) -> Vec<Effect> {
             }
             Vec::new()
         }
+        Input::Act(Action::Back) if p.kind == PromptKind::Handover => quit_now(app),
         Input::Act(Action::Back) => {
             app.prompt = None;
             app.say(Level::Info, "cancelled; nothing was changed");
@@ -283,6 +325,11 @@ fn prompt_key(app: &mut App, input: Input) -> Vec<Effect> {
                 PromptKind::Redo(r) => Ok(choose::answer_redo(app, *r, p.carry.clone())),
                 PromptKind::Nonconforming => {
                     verdict::answer_nonconforming(app, text.unwrap_or_default())
+                }
+                PromptKind::Handover => Ok(shift::answer_handover(app, text.unwrap_or_default())),
+                PromptKind::LeadSign(target) => review::answer_sign(app, *target),
+                PromptKind::Return(target) => {
+                    review::answer_return(app, *target, text.unwrap_or_default())
                 }
             };
             match res {
@@ -340,6 +387,19 @@ pub fn reach(app: &mut App, step: Step) {
 /// Where a freshly opened job lands: the step where work stopped on the first unfinished
 /// feature that was started, else the overview (after the name, when it is not known).
 pub fn land(app: &mut App) -> Vec<Effect> {
+    if app.review_mode {
+        if app.operator.is_empty() && !app.read_only {
+            app.after_name = Screen::Review;
+            app.screen = Screen::Name;
+        } else {
+            review::enter_review(app, 0);
+        }
+        return Vec::new();
+    }
+    if !app.notice_seen && !shift::notice_items(app).is_empty() {
+        app.screen = Screen::Notice;
+        return Vec::new();
+    }
     let started = app
         .doc
         .features

@@ -1,7 +1,7 @@
 //! Drawing: from the model only. Picks the screen, draws the shared frame (title, step bar,
 //! next step, status, footer) and any prompt or help on top.
 
-use super::app::{App, Level, STEPS, Screen, step_name};
+use super::app::{App, Level, PromptKind, STEPS, Screen, step_name};
 use super::chrome::{self, Frame5};
 use super::keymap::Action;
 use super::screens;
@@ -24,6 +24,11 @@ pub fn draw(f: &mut Frame, app: &App) {
     match app.screen {
         Screen::Overview => screens::overview::draw(f, fr.body, app),
         Screen::Name => screens::overview::draw_name(f, fr.body, app),
+        Screen::Notice => screens::notice::draw(f, fr.body, app),
+        Screen::Review => screens::review::draw(f, fr.body, app),
+        Screen::ReviewFeature { feature } => {
+            screens::review_feature::draw(f, fr.body, app, feature)
+        }
         Screen::Flow { step, .. } => {
             let body = flow_header(f, fr.body, app, step);
             match step {
@@ -54,6 +59,18 @@ pub fn draw(f: &mut Frame, app: &App) {
 /// Footer entries that do nothing right now.
 fn hidden_keys(app: &App) -> Vec<Action> {
     let mut hide = Vec::new();
+    if matches!(app.screen, Screen::Review | Screen::ReviewFeature { .. }) && app.read_only {
+        hide.extend([
+            Action::SignFeature,
+            Action::SignJob,
+            Action::ReturnFeature,
+            Action::ReturnJob,
+        ]);
+    }
+    if app.screen == Screen::Review && app.review_mode && app.prompt.is_none() {
+        // opened for review: there is no operator's overview to go back to
+        hide.push(Action::Back);
+    }
     if let Screen::Flow { step, .. } = app.screen {
         let v = app
             .attempt()
@@ -78,10 +95,11 @@ fn hidden_keys(app: &App) -> Vec<Action> {
 fn title(f: &mut Frame, area: Rect, app: &App) {
     let t = app.theme;
     let job = &app.doc.job;
+    let role = if app.review_mode { "lead" } else { "operator" };
     let who = if app.operator.is_empty() {
-        "operator: ?".to_string()
+        format!("{role}: ?")
     } else {
-        format!("operator: {}", app.operator)
+        format!("{role}: {}", app.operator)
     };
     let mut spans = vec![
         Span::styled(" tiltbook ", t.selected()),
@@ -89,6 +107,9 @@ fn title(f: &mut Frame, area: Rect, app: &App) {
         Span::styled(format!("Job {}", job.id), t.title()),
         Span::raw(format!(" · {}", job.part)),
     ];
+    if matches!(app.screen, Screen::Review | Screen::ReviewFeature { .. }) {
+        spans.push(Span::styled("  REVIEW", t.title()));
+    }
     if app.read_only {
         spans.push(Span::styled("  READ-ONLY", t.warn()));
     }
@@ -178,6 +199,10 @@ pub fn nominal_text(f: &Feature) -> String {
 /// The next action, in words, for the screen shown.
 pub fn next_words(app: &App) -> String {
     if let Some(p) = &app.prompt {
+        if p.kind == PromptKind::Handover {
+            return "type a note for the next shift and press Enter, or Esc to quit without one"
+                .into();
+        }
         return match p.field {
             Some(_) => "type the answer and press Enter; Esc cancels".into(),
             None => "Enter to go ahead, Esc to keep things as they are".into(),
@@ -189,6 +214,9 @@ pub fn next_words(app: &App) -> String {
     match app.screen {
         Screen::Name => "type your name or initials and press Enter".into(),
         Screen::Overview => screens::overview::next_for_job(app),
+        Screen::Notice => "read what was left for you, then press Enter to go on".into(),
+        Screen::Review => screens::review::next(app),
+        Screen::ReviewFeature { feature } => screens::review_feature::next(app, feature),
         Screen::Flow { step, .. } => {
             if app.read_only {
                 return "looking only (read-only): Esc goes back, q quits".into();

@@ -27,12 +27,53 @@ pub fn shop() -> ShopView {
 
 /// An app and its runner, landed as `open` lands them.
 pub fn app_with(doc: Traveller, operator: Option<&str>, read_only: bool) -> (App, Runner) {
+    opened(doc, operator, read_only, false)
+}
+
+/// An app opened for the lead's review (`--review`), landed.
+pub fn review_app(doc: Traveller, lead: Option<&str>, read_only: bool) -> (App, Runner) {
+    opened(doc, lead, read_only, true)
+}
+
+/// A sample job from sample-jobs/ (read only; tests never write there).
+pub fn sample(name: &str) -> Traveller {
+    let path = std::path::Path::new(env!("CARGO_MANIFEST_DIR"))
+        .join("sample-jobs")
+        .join(name);
+    let text = std::fs::read_to_string(&path).expect("the sample job reads");
+    traveller::parse(&text)
+        .expect("the sample job parses")
+        .traveller
+}
+
+/// Put every time stamped by the test run (after 2026) at one fixed time, so screens that show
+/// when something was signed or returned can be compared with a snapshot.
+pub fn fix_times(t: &mut Traveller) {
+    use tiltbook::traveller::Stamp;
+    let cut = Stamp::parse("2026-01-01T00:00:00Z").unwrap();
+    let fixed = Stamp::parse("2026-12-01T10:30:00-05:00").unwrap();
+    let f = |s: &mut Stamp| {
+        if s.timestamp() > cut.timestamp() {
+            *s = fixed;
+        }
+    };
+    t.signoffs.iter_mut().for_each(|s| f(&mut s.at));
+    t.returns.iter_mut().for_each(|r| f(&mut r.at));
+    t.events.iter_mut().for_each(|e| f(&mut e.at));
+    for h in &mut t.handovers {
+        f(&mut h.at);
+        h.read_by.iter_mut().for_each(|m| f(&mut m.at));
+    }
+}
+
+fn opened(doc: Traveller, operator: Option<&str>, read_only: bool, review: bool) -> (App, Runner) {
     let opts = Options {
         read_only,
         color: false,
         operator: operator.map(str::to_string),
         file_label: "jobs/J-2417.yaml".into(),
         today: today(),
+        review,
     };
     let mut app = App::new(doc, shop(), opts);
     let mut runner = Runner::new(None, shop());

@@ -4,7 +4,9 @@
 
 pub mod choose;
 pub mod readings;
+pub mod review;
 pub mod settle;
+pub mod shift;
 pub mod stack;
 pub mod verdict;
 

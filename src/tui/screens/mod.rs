@@ -1,9 +1,12 @@
 //! One module per screen of the flow; each draws from the model only.
 
 pub mod choose;
+pub mod notice;
 pub mod overview;
 pub mod prompt;
 pub mod readings;
+pub mod review;
+pub mod review_feature;
 pub mod setup;
 pub mod stack;
 pub mod verdict;

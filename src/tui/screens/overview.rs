@@ -154,11 +154,22 @@ pub fn next_for_job(app: &App) -> String {
 
 pub fn draw_name(f: &mut Frame, area: Rect, app: &App) {
     let t = app.theme;
+    let (question, goes) = if app.review_mode {
+        (
+            "Who is reviewing this job?",
+            "Your name or initials go with every sign-off and return you make.",
+        )
+    } else {
+        (
+            "Who is working on this job?",
+            "Your name or initials go beside every entry you confirm.",
+        )
+    };
     let lines = vec![
         Line::raw(""),
-        Line::styled("Who is working on this job?", t.title()),
+        Line::styled(question, t.title()),
         Line::raw(""),
-        Line::raw("Your name or initials go beside every entry you confirm."),
+        Line::raw(goes),
         Line::raw("(Next time give it with --as NAME, or put it in the shop file.)"),
         Line::raw(""),
         Line::from(vec![
