@@ -116,8 +116,11 @@ fn lead_return_comment_and_the_operator_sees_it_first() {
     snap("review_return_prompt", &mut app);
     enter(&mut app, &mut r);
     snap("review_returned", &mut app);
-    let (mut op, _) = app_with(app.doc.clone(), Some("KA"), false);
+    let (mut op, mut r) = app_with(app.doc.clone(), Some("KA"), false);
     snap("notice_return", &mut op);
+    enter(&mut op, &mut r);
+    snap("returned_verdict", &mut op);
+    assert!(text(&mut op, 80, 24).contains("Sent back by LV: clean the face"));
 }
 
 #[test]

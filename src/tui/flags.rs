@@ -154,13 +154,3 @@ pub fn lead_signoff<'a>(t: &'a Traveller, feature: Option<&str>) -> Option<&'a S
             && standing(t, s)
     })
 }
-
-/// The operator's sign-off of a feature that is not withdrawn.
-pub fn operator_signoff<'a>(t: &'a Traveller, feature: &str) -> Option<&'a SignOff> {
-    t.signoffs.iter().rev().find(|s| {
-        s.role == Role::Operator
-            && s.scope == Scope::Feature
-            && s.feature.as_deref() == Some(feature)
-            && withdrawn_by(t, s).is_none()
-    })
-}

@@ -145,7 +145,12 @@ pub fn judge(i: &JudgeInput, by: &str, at: Stamp) -> Result<Judgement, String> {
     })
 }
 
-/// Is the straightness along the sweep large against the tolerance?
+/// Is the straightness along the sweep large against the tolerance? The same rule as the
+/// review's flag (`report::STRAIGHTNESS_SHARE` of the tightest side), so the operator is warned
+/// of what the lead will see flagged.
 pub fn straightness_doubtful(s: &Sweep, f: &Feature) -> bool {
-    fit_so_far(s).is_some_and(|fit| fit.straightness_doubtful(&f.tolerance))
+    fit_so_far(s).is_some_and(|fit| {
+        fit.straightness_angle().arcsec()
+            > crate::traveller::report::STRAIGHTNESS_SHARE * f.tolerance.tightest().arcsec()
+    })
 }

@@ -140,6 +140,10 @@ pub fn next_for_job(app: &App) -> String {
             ),
             None => "every feature is finished: the traveller goes to the lead for review".into(),
         },
+        Some(feat) if feat.state == FeatureState::Returned => format!(
+            "{} was sent back by the lead: press Enter to see it, then try again (n) or sign again",
+            feat.id
+        ),
         Some(feat) => match feat.current_attempt() {
             Some(a) => format!(
                 "press Enter to go on with {} at {}",

@@ -30,9 +30,11 @@ pub fn attempts_text(f: &Feature) -> String {
         .join("→")
 }
 
-/// The state column: the operator's state, or "lead signed" once the lead's sign-off stands.
+/// The state column: the operator's state, or "lead signed" once a lead's sign-off of the
+/// feature (or of the whole job, finished features only) stands.
 pub fn review_state(app: &App, f: &Feature) -> String {
-    if lead_signoff(&app.doc, Some(&f.id)).is_some() {
+    let by_job = f.is_finished() && lead_signoff(&app.doc, None).is_some();
+    if by_job || lead_signoff(&app.doc, Some(&f.id)).is_some() {
         "lead signed".into()
     } else {
         super::overview::state_text(f)

@@ -117,6 +117,19 @@ pub fn draw(f: &mut Frame, area: Rect, app: &App) {
             t.bad(),
         ));
     }
+    if feat.state == FeatureState::Returned
+        && let Some(r) = app
+            .doc
+            .returns
+            .iter()
+            .rev()
+            .find(|r| r.feature.is_none() || r.feature.as_deref() == Some(feat.id.as_str()))
+    {
+        lines.push(Line::styled(
+            format!("Sent back by {}: {}", r.by, r.comment),
+            t.warn(),
+        ));
+    }
     lines.push(Line::raw(""));
     for (i, c) in choices(Some(j.verdict)).iter().enumerate() {
         let (mark, st) = row_mark(i == app.ui.verdict_sel, t);
