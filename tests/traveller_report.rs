@@ -54,7 +54,14 @@ fn each_format_carries_the_feature_facts() {
             "J-2417",
             "15°30'00.0\"",                                  // F3 nominal
             "0.1002 + 0.1360 + 0.1000 + 1.0000 = 1.3362 in", // F3 stack
-            "-1155.2\"",                                     // F3 attempt 1 deviation
+            "-1112.4\"",                                     // F3 attempt 1 deviation
+            "1.3372 in",                                     // F3 attempt 1, 0.137 for 0.136
+            "A 30°00' / B 20°00' (true slope 34°19')",       // F4, both views
+            "0.1001 + 0.1030 + 0.3000 + 1.0000 = 1.5031 in", // F4 other plate
+            "View B",
+            "over both views",
+            "included angle 2°51'51.1\"", // F2: 2·atan(1/40), tapers.csv
+            "on the included angle",
             "FAIL",
             "DOUBT",
             "stack swapped by hand",

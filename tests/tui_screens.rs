@@ -165,16 +165,3 @@ fn selection_is_marked_without_colour() {
     let s = text(&app, 80, 24);
     assert!(s.contains("▶ F1"), "the selected row has a marker: {s}");
 }
-
-#[test]
-fn compound_feature_names_the_second_plate() {
-    let (mut app, mut r) = app();
-    act(&mut app, &mut r, Action::Down);
-    act(&mut app, &mut r, Action::Down);
-    act(&mut app, &mut r, Action::Down); // F4, the compound angle
-    enter(&mut app, &mut r);
-    enter(&mut app, &mut r);
-    enter(&mut app, &mut r);
-    snap("stack_compound", &mut app);
-    assert!(text(&app, 120, 40).contains("other plate"));
-}

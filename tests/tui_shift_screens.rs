@@ -56,9 +56,10 @@ fn review_list_and_the_flagged_filter() {
     snap("review_flagged", &mut app);
     let s = text(&mut app, 80, 24);
     assert!(
-        !s.contains("F3   end chamfer"),
-        "F3 has no flag: hidden\n{s}"
+        !s.contains("F1   dovetail"),
+        "F1 has no flag: hidden\n{s}"
     );
+    assert!(s.contains("F3   end chamfer"), "F3's swap is flagged\n{s}");
     assert!(s.contains("swap straight"), "{s}");
 }
 
@@ -76,6 +77,10 @@ fn review_of_the_corrected_feature_shows_both_attempts() {
         "Attempt 1 of 2",
         "Budget",
         "Readings, attempt 1",
+        // the flag and the swap it stands on, as the stack screen recorded it
+        "! stack swapped by hand: attempt 1 0.1370 in for 0.1360 in",
+        "swapped by hand 0.1370 in for 0.1360 in",
+        "1 flag",
     ] {
         assert!(s.contains(want), "{want:?} missing:\n{s}");
     }
@@ -96,6 +101,40 @@ fn review_of_a_flagged_feature_names_its_flags() {
     let s = text(&mut app, 120, 40);
     assert!(s.contains("! stack swapped by hand"), "{s}");
     assert!(s.contains("! large straightness"), "{s}");
+}
+
+#[test]
+fn review_of_the_compound_feature_shows_both_plates_views_and_verdicts() {
+    let (mut app, mut r) = review_app(for_review(), Some("LV"), false);
+    for _ in 0..3 {
+        act(&mut app, &mut r, Action::Down);
+    }
+    enter(&mut app, &mut r); // F4
+    snap("review_f4_compound", &mut app);
+    let charts = text(&mut app, 120, 40);
+    update(&mut app, Msg::Resize(120, 40));
+    // the whole page as it is wrapped at 120 columns, and the screen for the charts
+    let pg = tiltbook::tui::screens::review_feature::page(&app, 3);
+    let mut all: String = pg
+        .lines
+        .iter()
+        .map(|l| l.spans.iter().map(|s| s.content.as_ref()).collect::<String>() + "\n")
+        .collect();
+    all.push_str(&charts);
+    for want in [
+        "A 30°00' / B 20°00' (true slope 34°19')",
+        "plate for view A: 2.0000 + 0.5000 = 2.5000 in",
+        "plate for view B: 0.1001 + 0.1030 + 0.3000 + 1.0000",
+        "view A: 5 of 5 over 4.0000 in",
+        "view B: 5 of 5 over 4.0000 in",
+        "DOUBT over both views",
+        "view A: DOUBT · deviation",
+        "view B: PASS · deviation",
+        "Readings, attempt 1, view A",
+        "view B",
+    ] {
+        assert!(all.contains(want), "{want:?} missing:\n{all}");
+    }
 }
 
 #[test]

@@ -151,9 +151,18 @@ fn quitting_works_from_every_screen_and_overlay() {
         update(&mut app, Msg::Key(Input::Act(Action::Back))),
         vec![Effect::Quit]
     );
+    // nothing done in this session and no feature under way: no note is asked
     let (mut app, _) = tui_support::app();
     update(&mut app, Msg::Key(Input::Act(Action::Help)));
     assert!(app.help);
+    assert_eq!(
+        update(&mut app, Msg::Key(Input::Act(Action::Quit))),
+        vec![Effect::Quit]
+    );
+    // with work under way, the note's question replaces the help
+    let (mut app, mut r) = tui_support::app();
+    to_stack(&mut app, &mut r);
+    update(&mut app, Msg::Key(Input::Act(Action::Help)));
     assert_eq!(update(&mut app, Msg::Key(Input::Act(Action::Quit))), vec![]);
     assert!(!app.help, "the note's question replaces the help");
     assert_eq!(

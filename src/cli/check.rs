@@ -24,7 +24,7 @@ pub fn run(args: &CheckArgs, out: &mut dyn Write) -> Result<ExitCode, CliError> 
     let mut unreadable: Vec<String> = Vec::new();
     for path in &args.files {
         let name = path.display().to_string();
-        let text = match std::fs::read(path) {
+        let text = match crate::store::read_capped(path) {
             Ok(bytes) => match String::from_utf8(bytes) {
                 Ok(t) => t,
                 Err(_) => {

@@ -13,8 +13,10 @@
 
 mod atomic;
 mod lock;
+mod read;
 
 pub use atomic::{backup_path, sync_folder, write_atomic};
+pub use read::read_capped;
 pub use lock::{
     Liveness, Lock, LockInfo, host_name, lock_path, process_alive, read_lock, release_all_locks,
 };
@@ -78,11 +80,19 @@ pub struct Store {
     lock: Option<Lock>,
 }
 
-/// Read and parse a traveller without locking it.
+/// Read and parse a traveller without locking it. A file over [`schema::MAX_BYTES`] is refused
+/// before it is read.
 pub fn load(path: &Path) -> Result<Loaded, StoreError> {
-    let text = std::fs::read_to_string(path).map_err(|source| StoreError::Read {
+    let bytes = read_capped(path).map_err(|source| StoreError::Read {
         path: path.to_path_buf(),
         source,
+    })?;
+    let text = String::from_utf8(bytes).map_err(|_| StoreError::Read {
+        path: path.to_path_buf(),
+        source: io::Error::new(
+            io::ErrorKind::InvalidData,
+            "the file is not UTF-8 text; save it as UTF-8",
+        ),
     })?;
     schema::parse(&text).map_err(|error| StoreError::Load {
         path: path.to_path_buf(),

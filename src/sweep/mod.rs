@@ -17,6 +17,10 @@ use crate::geometry::GeometryError;
 use crate::units::{Angle, Length, Tolerance, Unit};
 use thiserror::Error;
 
+/// Straightness is large against the tolerance when, as an angle over the travel, it passes
+/// this share of the tightest tolerance side. Common practice (no source).
+pub const STRAIGHTNESS_SHARE: f64 = 0.25;
+
 /// What is wrong with a sweep as given.
 #[derive(Debug, Clone, PartialEq, Error)]
 pub enum SweepError {
@@ -125,11 +129,11 @@ impl SweepFit {
         }
         Angle::from_rad((self.straightness.nm() as f64 / self.travel.nm() as f64).atan())
     }
-    /// True when the straightness over the travel is more than half the tightest side of
-    /// `tolerance`: a curved or dirty surface makes the residual angle doubtful. (The half is
-    /// our own choice, no source.)
+    /// True when the straightness over the travel is more than [`STRAIGHTNESS_SHARE`] of the
+    /// tightest side of `tolerance`: a curved or dirty surface makes the residual angle
+    /// doubtful. The one rule for this flag: the screens, the review and the reports use it.
     pub fn straightness_doubtful(&self, tolerance: &Tolerance) -> bool {
-        self.straightness_angle().deg() > tolerance.tightest().deg() / 2.0
+        self.straightness_angle().deg() > STRAIGHTNESS_SHARE * tolerance.tightest().deg()
     }
     /// The fitted line's reading at `position`.
     pub fn line_at(&self, position: Length) -> Length {

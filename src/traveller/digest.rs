@@ -33,7 +33,7 @@ pub fn feature_fields(t: &Traveller, f: &Feature) -> Vec<(String, Value)> {
         .and_then(|a| a.block_set.as_ref())
         .map(|c| json!({"id": c.id, "reason": c.reason, "snapshot": jv(&t.block_set(&c.id))}));
     let j = a.and_then(|a| a.judgement.as_ref());
-    vec![
+    let mut fields = vec![
         ("name".into(), json!(f.name)),
         (
             "kind".into(),
@@ -66,7 +66,18 @@ pub fn feature_fields(t: &Traveller, f: &Feature) -> Vec<(String, Value)> {
             "verdict".into(),
             jv(&j.map(|j| json!({"verdict": jv(&j.verdict), "doubt": jv(&j.doubt_decision)}))),
         ),
-    ]
+    ];
+    // what only some attempts hold is signed only when there: older sign-offs stay whole
+    if let Some(p) = a.and_then(|a| a.stack_pivot.as_ref()) {
+        fields.push(("stack_pivot".into(), jv(p)));
+    }
+    if let Some(s) = a.and_then(|a| a.sweep_b.as_ref()) {
+        fields.push(("readings_b".into(), jv(s)));
+    }
+    if let Some(v) = j.and_then(|j| j.view_b.as_ref()) {
+        fields.push(("view_b".into(), jv(v)));
+    }
+    fields
 }
 
 /// The fields a job sign-off covers: the job header, the list of features, and every feature's

@@ -2,7 +2,7 @@
 //! and appending to the event log for every confirmed action.
 
 use super::model::*;
-use crate::units::{Angle, Length};
+use crate::units::Angle;
 
 impl Traveller {
     /// A new traveller for `job` with `features` and nothing done yet.
@@ -250,73 +250,6 @@ impl Feature {
     }
 }
 
-impl Taper {
-    /// The half angle (the setting angle on sine centres): atan(D / (2·len)).
-    pub fn half_angle(&self) -> Result<Angle, String> {
-        let given = [
-            self.ratio.is_some(),
-            self.per_foot.is_some(),
-            self.included.is_some(),
-            self.half.is_some(),
-        ]
-        .iter()
-        .filter(|b| **b)
-        .count();
-        if given != 1 {
-            return Err(format!(
-                "give exactly one of ratio, per_foot, included or half (found {given}), e.g. `taper: {{ ratio: \"1:20\" }}`"
-            ));
-        }
-        if let Some(r) = &self.ratio {
-            let k = parse_ratio(r)?;
-            return Ok(Angle::from_rad((1.0 / (2.0 * k)).atan()));
-        }
-        if let Some(d) = self.per_foot {
-            if d.nm() <= 0 {
-                return Err("per_foot must be more than zero, e.g. \"0.6250 in\"".into());
-            }
-            let foot = Length::from_nm(12 * crate::units::NM_PER_INCH);
-            return Ok(Angle::from_rad(
-                (d.nm() as f64 / (2.0 * foot.nm() as f64)).atan(),
-            ));
-        }
-        if let Some(a) = self.included {
-            return Ok(Angle::from_deg(a.deg() / 2.0));
-        }
-        self.half.ok_or_else(|| "no taper given".to_string())
-    }
-}
-
-/// Parse a taper ratio `1:k` (diameter change 1 over length k); returns k.
-pub fn parse_ratio(text: &str) -> Result<f64, String> {
-    let bad = || format!("taper ratio '{text}' is not of the form 1:k; write it like \"1:20\"");
-    let (a, b) = text.split_once(':').ok_or_else(bad)?;
-    let a: f64 = a.trim().parse().map_err(|_| bad())?;
-    let b: f64 = b.trim().parse().map_err(|_| bad())?;
-    if !(a.is_finite() && b.is_finite()) || a <= 0.0 || b <= 0.0 {
-        return Err(bad());
-    }
-    Ok(b / a)
-}
-
-impl Compound {
-    /// (near plate, far plate) setting angles: the near plate is set to its own view angle,
-    /// the far one to atan(tan(far view) · cos(near view)).
-    pub fn plate_angles(&self) -> (Angle, Angle) {
-        let (near, far) = match self.near {
-            NearPlate::A => (self.a, self.b),
-            NearPlate::B => (self.b, self.a),
-        };
-        let far_set = Angle::from_rad((far.rad().tan() * near.rad().cos()).atan());
-        (near, far_set)
-    }
-    /// True slope of the plane: atan(√(tan²A + tan²B)).
-    pub fn true_slope(&self) -> Angle {
-        let (ta, tb) = (self.a.rad().tan(), self.b.rad().tan());
-        Angle::from_rad((ta * ta + tb * tb).sqrt().atan())
-    }
-}
-
 impl FeatureState {
     /// Can a feature go from `prev` to `self`?
     pub fn can_follow(self, prev: FeatureState) -> bool {
@@ -425,25 +358,6 @@ impl Judgement {
 #[cfg(test)]
 mod tests {
     use super::*;
-
-    #[test]
-    fn taper_half_angles() {
-        // 1:20 on the diameter: half angle atan(1/40) = 1.432096° (direct computation)
-        let t = Taper {
-            ratio: Some("1:20".into()),
-            ..Taper::default()
-        };
-        let h = t.half_angle().unwrap();
-        assert!((h.deg() - (1.0f64 / 40.0).atan().to_degrees()).abs() < 1e-12);
-        assert!((h.deg() - 1.432_096).abs() < 1e-6, "{}", h.deg());
-        let two = Taper {
-            ratio: Some("1:20".into()),
-            half: Some(Angle::from_deg(1.0)),
-            ..Taper::default()
-        };
-        assert!(two.half_angle().is_err());
-        assert!(parse_ratio("20").is_err());
-    }
 
     #[test]
     fn states_follow_the_flow() {

@@ -3,6 +3,8 @@
 
 pub mod digest;
 pub mod events;
+mod fit;
+pub mod kinds;
 pub mod locate;
 pub mod model;
 pub mod report;

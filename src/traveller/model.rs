@@ -11,7 +11,9 @@ use jiff::civil::Date;
 pub use records::*;
 use serde::{Deserialize, Serialize};
 
+mod judgement;
 mod records;
+pub use judgement::*;
 
 /// The schema version this build writes (and the newest it reads).
 pub const SCHEMA_VERSION: u32 = 1;
@@ -429,93 +431,6 @@ impl Sweep {
     }
 }
 
-/// The fitted line r = intercept + slope·x.
-#[derive(Debug, Clone, PartialEq, Serialize, Deserialize)]
-#[serde(deny_unknown_fields)]
-pub struct Fit {
-    /// Rise per unit of travel (dimensionless).
-    pub slope: f64,
-    pub intercept: Length,
-    /// Max − min of the readings less the line.
-    pub straightness: Length,
-}
-
-/// One line of the uncertainty budget (a standard uncertainty, in angle).
-#[derive(Debug, Clone, PartialEq, Serialize, Deserialize)]
-#[serde(deny_unknown_fields)]
-pub struct BudgetLine {
-    pub source: String,
-    pub u: Angle,
-    #[serde(default, skip_serializing_if = "String::is_empty")]
-    pub note: String,
-}
-
-/// How a verdict is reached.
-#[derive(Debug, Clone, Copy, PartialEq, Eq, Default, Serialize, Deserialize)]
-#[serde(rename_all = "snake_case")]
-pub enum DecisionRule {
-    /// Pass when |deviation| ≤ tolerance.
-    #[default]
-    Simple,
-    /// Pass when |deviation| + U ≤ tolerance; fail when |deviation| − U > tolerance.
-    Guarded,
-}
-
-/// The outcome of an attempt.
-#[derive(Debug, Clone, Copy, PartialEq, Eq, Serialize, Deserialize)]
-#[serde(rename_all = "snake_case")]
-pub enum Verdict {
-    Pass,
-    Fail,
-    /// Inside the doubt band: the lead decides.
-    Doubt,
-}
-
-/// The suggested change to the stack after a failed attempt.
-#[derive(Debug, Clone, PartialEq, Serialize, Deserialize)]
-#[serde(deny_unknown_fields)]
-pub struct Correction {
-    /// Change in stack height (ΔH = C·(sin(θ − δ) − sin θ)).
-    pub delta: Length,
-    /// New height to build.
-    pub height: Length,
-}
-
-/// The lead's decision on a verdict inside the doubt band.
-#[derive(Debug, Clone, PartialEq, Serialize, Deserialize)]
-#[serde(deny_unknown_fields)]
-pub struct DoubtDecision {
-    pub verdict: Verdict,
-    pub reason: String,
-    pub by: String,
-    pub at: Stamp,
-}
-
-/// Residual, deviation, uncertainty and verdict of an attempt.
-#[derive(Debug, Clone, PartialEq, Serialize, Deserialize)]
-#[serde(deny_unknown_fields)]
-pub struct Judgement {
-    pub fit: Fit,
-    /// atan(slope), positive when the surface rises toward the raised end.
-    pub residual: Angle,
-    /// (achieved − nominal) − residual.
-    pub deviation: Angle,
-    /// Expanded uncertainty (k = 2).
-    #[serde(rename = "U")]
-    pub u: Angle,
-    #[serde(default, skip_serializing_if = "Vec::is_empty")]
-    pub budget: Vec<BudgetLine>,
-    #[serde(default)]
-    pub rule: DecisionRule,
-    pub verdict: Verdict,
-    #[serde(default, skip_serializing_if = "Option::is_none")]
-    pub correction: Option<Correction>,
-    #[serde(default, skip_serializing_if = "Option::is_none")]
-    pub doubt_decision: Option<DoubtDecision>,
-    pub by: String,
-    pub at: Stamp,
-}
-
 /// One try at a feature: fixture, set, stack, settle, sweep, verdict.
 #[derive(Debug, Clone, PartialEq, Default, Serialize, Deserialize)]
 #[serde(deny_unknown_fields)]
@@ -532,9 +447,15 @@ pub struct Attempt {
     pub block_set: Option<Choice>,
     #[serde(default, skip_serializing_if = "Option::is_none")]
     pub stack: Option<Stack>,
-    /// Second plate's stack (compound angles): from the same set, no block shared.
+    /// Compound angles: the other plate's stack (the plate not nearer the part), from the same
+    /// set as `stack` with no block shared. `stack` is then the near plate's.
     #[serde(default, skip_serializing_if = "Option::is_none")]
     pub stack_b: Option<Stack>,
+    /// Small angles, two stacks on one fixture: the stack under the pivot roll. `stack` is then
+    /// the one under the raised roll, and the fixture's angle comes from their difference
+    /// (both record that angle as `achieved`).
+    #[serde(default, skip_serializing_if = "Option::is_none")]
+    pub stack_pivot: Option<Stack>,
     /// The safety and care cautions were shown and confirmed.
     #[serde(default, skip_serializing_if = "Option::is_none")]
     pub safety: Option<Mark>,
@@ -542,6 +463,10 @@ pub struct Attempt {
     pub settle: Option<Settle>,
     #[serde(default, skip_serializing_if = "Option::is_none")]
     pub sweep: Option<Sweep>,
+    /// Compound angles: the sweep along the other plate's view (`sweep` is along the near
+    /// plate's).
+    #[serde(default, skip_serializing_if = "Option::is_none")]
+    pub sweep_b: Option<Sweep>,
     #[serde(default, skip_serializing_if = "Option::is_none")]
     pub judgement: Option<Judgement>,
     #[serde(default, skip_serializing_if = "String::is_empty")]

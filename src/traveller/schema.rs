@@ -6,6 +6,11 @@ use super::model::{SCHEMA_VERSION, Traveller};
 use serde_yaml::Value;
 use thiserror::Error;
 
+#[path = "schema_guard.rs"]
+mod guard;
+pub use guard::{MAX_BYTES, MAX_DEPTH, describe_size};
+pub(crate) use guard::too_large;
+
 /// Why a traveller file could not be read into a job.
 #[derive(Debug, Clone, PartialEq, Error)]
 pub enum LoadError {
@@ -68,16 +73,19 @@ pub struct Loaded {
 
 /// Read a traveller (or plan file) from YAML text, upgrading an older schema.
 pub fn parse(text: &str) -> Result<Loaded, LoadError> {
+    guard::check(text)?;
     let locator = Locator::new(text);
     let value: Value = serde_yaml::from_str(text).map_err(|e| {
         let (line, col) = location(&e);
         LoadError::Syntax {
             line,
             col,
-            message: format!(
-                "the file is not valid YAML: {}; check the indentation and quoting near here",
-                e
-            ),
+            message: guard::explain(&e).unwrap_or_else(|| {
+                format!(
+                    "the file is not valid YAML: {}; check the indentation and quoting near here",
+                    e
+                )
+            }),
         }
     })?;
     let Value::Mapping(map) = &value else {

@@ -358,17 +358,41 @@ fn attempt(t: &Traveller, f: &Feature, a: &Attempt, p: &str, k: usize, out: &mut
             out.at(&format!("{p}.block_set"), format!("block set {} was out of calibration (due {due}) when chosen on {}; record why it was used in `reason:`", s.id, c.at.date()));
         }
     }
+    let under = a.stack_pivot.as_ref().map(|x| x.block_total());
     if let Some(s) = &a.stack {
-        stack(s, fixture, &format!("{p}.stack"), out);
+        stack(s, fixture, under, &format!("{p}.stack"), out);
     }
     if let Some(s) = &a.stack_b {
-        stack(s, None, &format!("{p}.stack_b"), out);
+        stack(s, fixture, None, &format!("{p}.stack_b"), out);
         if f.kind != FeatureKind::Compound {
             out.at(&format!("{p}.stack_b"), "a second stack is only for compound angles; remove `stack_b:` or set `kind: compound`");
         }
     }
+    if let Some(s) = &a.stack_pivot {
+        let path = format!("{p}.stack_pivot");
+        if f.kind == FeatureKind::Compound {
+            out.at(&path, "a compound angle's second stack is `stack_b:` (the other plate); remove `stack_pivot:`");
+        }
+        match &a.stack {
+            None => out.at(&path, "a stack under the pivot roll needs the one under the raised roll in `stack:`; add it or remove `stack_pivot:`"),
+            Some(r) if r.block_total() <= s.block_total() => out.at(&path, "the stack under the pivot roll must be lower than the one under the raised roll (their difference sets the angle); check which is which"),
+            Some(r) => {
+                stack(s, None, None, &path, out);
+                // both record the angle their difference sets
+                if (s.achieved.arcsec() - r.achieved.arcsec()).abs() > ANGLE_SLACK_ARCSEC {
+                    out.at(&format!("{path}.achieved"), format!("the two stacks set one angle, but they record {} and {}; give both the angle of their difference", r.achieved.dms(2), s.achieved.dms(2)));
+                }
+            }
+        }
+    }
     if let Some(s) = &a.sweep {
         sweep(s, &format!("{p}.sweep"), out);
+    }
+    if let Some(s) = &a.sweep_b {
+        sweep(s, &format!("{p}.sweep_b"), out);
+        if f.kind != FeatureKind::Compound {
+            out.at(&format!("{p}.sweep_b"), "a second sweep is only for compound angles (the other view); remove `sweep_b:` or set `kind: compound`");
+        }
     }
     if let Some(j) = &a.judgement {
         judgement(f, a, j, &format!("{p}.judgement"), out);

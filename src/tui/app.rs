@@ -5,9 +5,11 @@ use super::field::Field;
 use super::keymap::{Ctx, Input};
 use super::rank::{FixtureOption, SetOption};
 use super::shop_view::ShopView;
+use super::solve::{SolveJob, Solution};
 use super::theme::Theme;
-use crate::traveller::{Attempt, Feature, StackBlock, Step, Traveller};
-use crate::units::{Length, Unit};
+use crate::blocks::small::SmallAngle;
+use crate::traveller::{Attempt, Feature, Step, Traveller};
+use crate::units::Unit;
 use jiff::civil::Date;
 
 /// Where the operator is.
@@ -99,6 +101,8 @@ pub enum RField {
 /// What is typed on the readings screen.
 #[derive(Debug, Clone, Default, PartialEq, Eq)]
 pub struct ReadingsUi {
+    /// Compound angles: the readings of the other plate's view (`sweep_b`) are on screen.
+    pub other_view: bool,
     pub focus: RField,
     pub travel: Field,
     pub points: Field,
@@ -115,6 +119,9 @@ pub struct Ui {
     pub stack_sel: usize,
     pub verdict_sel: usize,
     pub fixtures: Vec<FixtureOption>,
+    /// The set the fixtures' U estimate is for: id, grade as written, and whether its grade's
+    /// limits are known (else the stack is left out of the estimate).
+    pub rank_set: Option<(String, String, bool)>,
     pub sets: Vec<SetOption>,
     pub name: Field,
     pub sign: Field,
@@ -125,7 +132,23 @@ pub struct Ui {
     pub solving: bool,
     /// The last solver refusal, with its remedies.
     pub solve_error: Option<String>,
+    /// Something the last solve left to say (protectors left off…).
+    pub solve_note: Option<String>,
+    /// The small-angle remedies of this attempt, when the direct stack is poor.
+    pub remedies: Option<RemedyUi>,
     pub review: ReviewUi,
+}
+
+/// The small-angle remedies side by side, as offered on the stack screen.
+#[derive(Debug, Clone, PartialEq)]
+pub struct RemedyUi {
+    pub small: Box<SmallAngle>,
+    /// The fixture they were worked out for.
+    pub fixture_id: String,
+    /// The option under the cursor (an index into `flow::remedy::options`).
+    pub sel: usize,
+    /// The choice is on screen (not yet made, or opened again with r).
+    pub open: bool,
 }
 
 /// Cursors of the review screens.
@@ -152,7 +175,7 @@ pub enum Msg {
     Solved {
         feature: usize,
         attempt: u32,
-        result: Result<Vec<StackBlock>, String>,
+        result: Result<Solution, String>,
     },
     /// A save went through.
     Saved,
@@ -171,14 +194,13 @@ pub enum Effect {
     Quit,
 }
 
-/// What the solver is asked.
+/// What the solver is asked, for which attempt.
 #[derive(Debug, Clone, PartialEq)]
 pub struct SolveRequest {
     pub feature: usize,
     pub attempt: u32,
     pub set_id: String,
-    pub height: Length,
-    pub protectors: bool,
+    pub job: SolveJob,
 }
 
 /// How the app was opened.
@@ -223,6 +245,8 @@ pub struct App {
     pub quit: bool,
     /// The last save failed; the next confirmed entry tries again.
     pub unsaved: bool,
+    /// Something was confirmed in this session (the note for the next shift is asked then).
+    pub worked: bool,
     pub ui: Ui,
 }
 
@@ -291,6 +315,7 @@ impl App {
             size: (80, 24),
             quit: false,
             unsaved: false,
+            worked: false,
             ui: Ui::default(),
         };
         app.ui.name = Field::new(40);
@@ -353,6 +378,7 @@ impl App {
             Screen::Flow { step, .. } => match step {
                 Step::Fixture => Ctx::Fixture,
                 Step::BlockSet => Ctx::BlockSet,
+                Step::Stack if self.ui.remedies.as_ref().is_some_and(|r| r.open) => Ctx::Remedy,
                 Step::Stack => Ctx::Stack,
                 Step::Safety => Ctx::Safety,
                 Step::Settle => Ctx::Settle,

@@ -58,19 +58,16 @@ pub fn footer(f: &mut Frame, area: Rect, ctx: Ctx, typing: bool, hide: &[Action]
 pub fn help_overlay(f: &mut Frame, ctx: Ctx, theme: Theme) {
     let area = centered(f.area(), 76, 20);
     f.render_widget(Clear, area);
-    let mut lines = vec![
-        Line::styled("Keys on this screen", theme.title()),
-        Line::raw(""),
-    ];
+    let mut lines = vec![Line::styled("Keys on this screen", theme.title())];
     for (keys, help) in keymap::help(ctx) {
         lines.push(Line::from(vec![
             Span::styled(format!("{keys:<22}"), theme.key()),
             Span::raw(help),
         ]));
     }
-    lines.push(Line::raw(""));
-    lines.push(Line::raw(
+    lines.push(Line::styled(
         "Arrows, Enter, Esc and Tab always work; letters are shortcuts.",
+        theme.dim(),
     ));
     f.render_widget(
         Paragraph::new(lines).wrap(Wrap { trim: false }).block(

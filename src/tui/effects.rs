@@ -3,7 +3,7 @@
 
 use super::app::{App, Effect, Msg};
 use super::shop_view::ShopView;
-use super::solve::solve;
+use super::solve;
 use crate::store::Store;
 
 /// Runs effects; holds the open store (and so the lock).
@@ -41,7 +41,7 @@ impl Runner {
             }
             Effect::Solve(req) => {
                 let result = match self.shop.set(&req.set_id) {
-                    Some(set) => solve(set, req.height, req.protectors),
+                    Some(set) => solve::run(set, &req.job),
                     None => Err(format!(
                         "the block set {} is not in the shop file; choose another set",
                         req.set_id

@@ -12,6 +12,8 @@ pub enum Ctx {
     Fixture,
     BlockSet,
     Stack,
+    /// The stack screen while the small-angle remedies are offered.
+    Remedy,
     Safety,
     Settle,
     Readings,
@@ -53,6 +55,8 @@ pub enum Action {
     Swap,
     /// Put the set's protector blocks on the ends of the stack, or take them off.
     Protectors,
+    /// Small angles: show the remedies side by side again.
+    Remedies,
     /// Skip the settle timer.
     Skip,
     /// Remove the last reading.
@@ -129,6 +133,7 @@ const LISTS: &[Ctx] = &[
     C::Fixture,
     C::BlockSet,
     C::Stack,
+    C::Remedy,
     C::Verdict,
     C::Help,
 ];
@@ -142,6 +147,7 @@ pub const KEYMAP: &[Binding] = &[
     b(&[ENTER], Action::Forward, "use fixture", "Use the selected fixture (an out-of-date one asks for a reason)", &[C::Fixture], true),
     b(&[ENTER], Action::Forward, "use set", "Use the selected block set", &[C::BlockSet], true),
     b(&[ENTER], Action::Forward, "stack built", "Go on once every block is ticked as wrung", &[C::Stack], true),
+    b(&[ENTER], Action::Forward, "use this", "Use the selected remedy: its stacks (or the longer fixture) become this attempt's", &[C::Remedy], true),
     b(&[ENTER], Action::Forward, "all done", "The cautions are read and the work is clamped: confirm and let the stack settle", &[C::Safety], true),
     b(&[ENTER], Action::Forward, "to readings", "The stack has settled (or the wait was skipped): go to the readings", &[C::Settle], true),
     b(&[ENTER], Action::Forward, "add / verdict", "Add the reading typed; with the field empty and enough readings, see the verdict", &[C::Readings], true),
@@ -153,7 +159,7 @@ pub const KEYMAP: &[Binding] = &[
     b(&[ENTER, Key::Code(KeyCode::Right)], Action::Forward, "attempts", "Show the selected feature: every attempt, the stack, readings, chart and budget", &[C::Review], true),
     b(&[ENTER], Action::Back, "close", "Close the help", &[C::Help], false),
     // Esc: back.
-    b(&[ESC], Action::Back, "back", "Go back one step; every step can be seen again until the feature is signed", &[C::Fixture, C::BlockSet, C::Stack, C::Safety, C::Settle, C::Readings, C::Verdict, C::Sign], true),
+    b(&[ESC], Action::Back, "back", "Go back one step; every step can be seen again until the feature is signed", &[C::Fixture, C::BlockSet, C::Stack, C::Remedy, C::Safety, C::Settle, C::Readings, C::Verdict, C::Sign], true),
     b(&[ESC], Action::Back, "cancel", "Cancel and go back", &[C::Prompt, C::Name], true),
     b(&[ESC], Action::Back, "quit, no note", "Quit without a note", &[C::Handover], true),
     b(&[ESC], Action::Back, "overview", "Back to the job overview", &[C::Review], true),
@@ -182,6 +188,7 @@ pub const KEYMAP: &[Binding] = &[
     b(&[Key::Code(KeyCode::Char(' ')), ch('w')], Action::Tick, "wrung", "Tick the selected block as wrung (again to undo)", &[C::Stack], true),
     b(&[ch('s')], Action::Swap, "swap block", "Replace the selected block with the one really used; the angle is worked out from what was built", &[C::Stack], true),
     b(&[ch('p')], Action::Protectors, "protectors", "Use the set's protector blocks on the ends of the stack, or leave them off (before any block is wrung)", &[C::Stack], true),
+    b(&[ch('r')], Action::Remedies, "remedies", "Small angle: show the remedies side by side again", &[C::Stack], true),
     b(&[ch('s')], Action::Skip, "skip wait", "Skip the settle timer (the skip is recorded)", &[C::Settle], true),
     b(&[Key::Code(KeyCode::Delete), Key::Ctrl('d')], Action::Remove, "remove last", "Remove the last reading", &[C::Readings], true),
     b(&[Key::Code(KeyCode::F(2))], Action::Mode, "spacing/pairs", "Switch between fixed spacing over a travel and position/reading pairs (before the first reading)", &[C::Readings], true),

@@ -13,6 +13,7 @@ pub mod field;
 pub mod flags;
 pub mod flow;
 pub mod judge;
+pub mod judge_views;
 pub mod keymap;
 pub mod rank;
 pub mod screens;

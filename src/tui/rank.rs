@@ -34,7 +34,8 @@ pub struct FixtureOption {
     pub height: Option<Length>,
     /// Achieved − setting, from rounding the stack.
     pub error: Option<Angle>,
-    /// Expanded uncertainty estimate from the centre distance and a grade-0 stack.
+    /// Expanded uncertainty estimate from the centre distance and a stack of the likely set's
+    /// grade.
     pub u: Option<Angle>,
     pub warnings: Vec<String>,
     pub out_of_date: bool,
@@ -58,21 +59,28 @@ pub fn suits(fixture: FixtureKind, feature: FeatureKind) -> Result<(), &'static 
     }
 }
 
-/// Rank the shop's fixtures for `setting` on a feature of `kind`, heights rounded to `step`:
-/// reachable first, then made for the kind, then in date, then the smallest |error| + U.
-pub fn rank_fixtures(
-    shop: &ShopView,
-    kind: FeatureKind,
-    setting: Angle,
-    step: Length,
-    unit: Unit,
-    today: Date,
-) -> Vec<FixtureOption> {
+/// What a fixture is ranked for: the feature's kind and setting angle, the step heights are
+/// rounded to, the job's unit, today, and the tolerance class of the set likely to be used
+/// (its blocks' grade enters the estimate of U; none leaves the stack out of it).
+#[derive(Debug, Clone, Copy, PartialEq)]
+pub struct RankFor {
+    pub kind: FeatureKind,
+    pub setting: Angle,
+    pub step: Length,
+    pub unit: Unit,
+    pub today: Date,
+    pub grade: Option<Grade>,
+}
+
+/// Rank the shop's fixtures for `r.setting` on a feature of `r.kind`, heights rounded to
+/// `r.step`: reachable first, then made for the kind, then in date, then the smallest
+/// |error| + U.
+pub fn rank_fixtures(shop: &ShopView, r: &RankFor) -> Vec<FixtureOption> {
     let mut v: Vec<FixtureOption> = shop
         .fixtures
         .iter()
         .enumerate()
-        .map(|(index, f)| offer(index, f, kind, setting, step, unit, today))
+        .map(|(index, f)| offer(index, f, r))
         .collect();
     let score = |o: &FixtureOption| {
         o.error.map_or(f64::MAX, |e| e.arcsec().abs()) + o.u.map_or(0.0, |u| u.arcsec())
@@ -85,15 +93,8 @@ pub fn rank_fixtures(
     v
 }
 
-fn offer(
-    index: usize,
-    f: &FixtureSnapshot,
-    kind: FeatureKind,
-    setting: Angle,
-    step: Length,
-    unit: Unit,
-    today: Date,
-) -> FixtureOption {
+fn offer(index: usize, f: &FixtureSnapshot, r: &RankFor) -> FixtureOption {
+    let (kind, setting, step, unit, today) = (r.kind, r.setting, r.step, r.unit, r.today);
     let geo = geometry(f);
     let stale = out_of_date(f.due, today);
     let mut o = FixtureOption {
@@ -136,7 +137,7 @@ fn offer(
             }
             o.height = Some(adv.direct.height);
             o.error = Some(adv.direct.error);
-            o.u = estimate_u(&geo, setting, f.centre_u, adv.direct.height);
+            o.u = estimate_u(&geo, setting, f.centre_u, adv.direct.height, r.grade);
             for w in adv.warnings {
                 if !w.contains("taller than this fixture") {
                     o.warnings.push(w);
@@ -152,12 +153,17 @@ fn estimate_u(
     setting: Angle,
     centre_u: Option<Length>,
     h: Length,
+    grade: Option<Grade>,
 ) -> Option<Angle> {
-    let mut c = vec![Contribution::Stack {
-        blocks: vec![h],
-        grade: Grade::Zero,
-        per_joint_nm: DEFAULT_JOINT_NM,
-    }];
+    // the stack as one block of its height: its grade's limit for that length
+    let mut c: Vec<Contribution> = grade
+        .map(|grade| Contribution::Stack {
+            blocks: vec![h],
+            grade,
+            per_joint_nm: DEFAULT_JOINT_NM,
+        })
+        .into_iter()
+        .collect();
     if let Some(u) = centre_u {
         c.push(Contribution::CenterCalibration { u });
     }
@@ -203,14 +209,44 @@ pub fn sizes_text(sizes: &[Length], unit: Unit) -> String {
     format!("{} {}", v.join(", "), unit.symbol())
 }
 
-/// The grade of a set snapshot as the budget knows it (grade 0 when it cannot be read).
+/// The tolerance class of a set snapshot's grade as the budget knows it (none when it cannot
+/// be read, or for a grade whose limits tiltbook does not carry).
 pub fn grade_of(snap: &BlockSetSnapshot) -> Option<Grade> {
+    if let Ok(g) = snap.grade.parse::<crate::blocks::Grade>() {
+        return g.tolerance_class();
+    }
     let g = snap.grade.trim();
     let g = g
         .strip_prefix("ISO ")
         .or_else(|| g.strip_prefix("ASME "))
         .unwrap_or(g);
     g.parse::<Grade>().ok()
+}
+
+/// The set a fixture is likely to be used with: the set this attempt chose, else the one used
+/// last on this job, else the first in-date set in the job's unit (the first set at all when
+/// none is).
+pub fn likely_set<'a>(
+    shop: &'a ShopView,
+    chosen: Option<&str>,
+    used: Option<&str>,
+    unit: Unit,
+    today: Date,
+) -> Option<&'a SetView> {
+    chosen
+        .and_then(|id| shop.set(id))
+        .or_else(|| used.and_then(|id| shop.set(id)))
+        .or_else(|| {
+            shop.sets
+                .iter()
+                .find(|s| s.snap.unit == unit && !out_of_date(s.snap.due, today))
+        })
+        .or(shop.sets.first())
+}
+
+/// The tolerance class of a set's grade (none for a grade whose limits tiltbook does not carry).
+pub fn set_grade(set: &SetView) -> Option<Grade> {
+    set.set.grade.and_then(|g| g.tolerance_class())
 }
 
 /// The set of a snapshot id in the shop, for the solver.
@@ -230,19 +266,23 @@ mod tests {
         shop.fixtures[o.index].id.clone()
     }
 
+    fn plain(deg: f64, today: Date) -> RankFor {
+        RankFor {
+            kind: FeatureKind::Plain,
+            setting: Angle::from_deg(deg),
+            step: Length::inches(0.0001),
+            unit: Unit::In,
+            today,
+            grade: Some(Grade::Zero),
+        }
+    }
+
     #[test]
     fn out_of_date_fixtures_go_after_the_ones_in_date() {
         // the demo shop's SB5-117 is due 2027-03-16: out of date on 2027-03-20
         let today = jiff::civil::date(2027, 3, 20);
         let shop = demo_shop(today);
-        let r = rank_fixtures(
-            &shop,
-            FeatureKind::Plain,
-            Angle::from_deg(30.0),
-            Length::inches(0.0001),
-            Unit::In,
-            today,
-        );
+        let r = rank_fixtures(&shop, &plain(30.0, today));
         assert_eq!(r.len(), shop.fixtures.len());
         assert!(r[0].reachable && !r[0].out_of_date);
         let bar = r.iter().position(|o| id(&shop, o) == "SB5-117").unwrap();
@@ -257,17 +297,40 @@ mod tests {
     }
 
     #[test]
+    fn the_estimate_follows_the_likely_sets_grade() {
+        // the demo shop's inch set BX81-A is ASME AS-1, tolerance class 1 (ASME B89.1.9 / ISO
+        // 3650 grade table in standards.md): its limits are wider than grade 0's, so U grows
+        let today = jiff::civil::date(2026, 12, 1);
+        let shop = demo_shop(today);
+        let set = likely_set(&shop, None, None, Unit::In, today).unwrap();
+        assert_eq!(set.snap.id, "BX81-A");
+        assert_eq!(set_grade(set), Some(Grade::One));
+        let zero = rank_fixtures(&shop, &plain(30.0, today));
+        let one = rank_fixtures(
+            &shop,
+            &RankFor {
+                grade: Some(Grade::One),
+                ..plain(30.0, today)
+            },
+        );
+        let u = |r: &[FixtureOption]| {
+            r.iter()
+                .find(|o| id(&shop, o) == "SB5-117")
+                .and_then(|o| o.u)
+                .unwrap()
+                .arcsec()
+        };
+        assert!(u(&one) > u(&zero), "{} {}", u(&one), u(&zero));
+        // and a set chosen already wins over the likely one
+        let metric = likely_set(&shop, Some("BX88-B"), Some("BX81-A"), Unit::In, today).unwrap();
+        assert_eq!(metric.snap.id, "BX88-B");
+    }
+
+    #[test]
     fn an_angle_above_the_rating_is_not_reachable() {
         let today = jiff::civil::date(2026, 12, 1);
         let shop = demo_shop(today);
-        let r = rank_fixtures(
-            &shop,
-            FeatureKind::Plain,
-            Angle::from_deg(70.0),
-            Length::inches(0.0001),
-            Unit::In,
-            today,
-        );
+        let r = rank_fixtures(&shop, &plain(70.0, today));
         let bar = r.iter().find(|o| id(&shop, o) == "SB5-117").unwrap();
         assert!(!bar.reachable);
         assert!(bar.why_not.as_deref().unwrap_or("").contains("rated only"));
@@ -279,14 +342,7 @@ mod tests {
         // −0.00001/(5·cos 30°) rad ≈ −0.48" (DOMAIN: dθ = dH/(C cos θ))
         let today = jiff::civil::date(2026, 12, 1);
         let shop = demo_shop(today);
-        let r = rank_fixtures(
-            &shop,
-            FeatureKind::Plain,
-            Angle::from_deg(30.0),
-            Length::inches(0.0001),
-            Unit::In,
-            today,
-        );
+        let r = rank_fixtures(&shop, &plain(30.0, today));
         let bar = r.iter().find(|o| id(&shop, o) == "SB5-117").unwrap();
         assert_eq!(bar.height, Some(Length::inches(2.5)));
         let e = bar.error.unwrap().arcsec();

@@ -258,6 +258,11 @@ pub fn enter_step(app: &mut App, index: usize, step: Step) -> Vec<Effect> {
 }
 
 fn flow_key(app: &mut App, feature: usize, step: Step, input: Input) -> Vec<Effect> {
+    if input == Input::Act(Action::Back) && step == Step::Sweep && app.ui.readings.other_view {
+        // a compound angle: back from the other view's readings to the near plate's
+        readings::show_view(app, false);
+        return Vec::new();
+    }
     if input == Input::Act(Action::Back) {
         app.ui.settle_left = if step == Step::Settle {
             None
@@ -367,6 +372,7 @@ pub fn record(app: &mut App, kind: EventKind, detail: impl Into<String>) {
     };
     let id = f.id.clone();
     let attempt = f.current_attempt().map(|a| a.number);
+    app.worked = true;
     if let Some(s) = FeatureState::after_event(kind)
         && f.state != FeatureState::Nonconforming
     {
@@ -396,9 +402,18 @@ pub fn land(app: &mut App) -> Vec<Effect> {
         }
         return Vec::new();
     }
-    if !app.notice_seen && !shift::notice_items(app).is_empty() {
+    // a finished job: old notes do not stand in the operator's way (the lead's review lists
+    // them); a return reopens a feature, so it is never hidden by this
+    let finished = app.doc.features.iter().all(|f| f.is_finished());
+    if !app.notice_seen && !finished && !shift::notice_items(app).is_empty() {
         app.screen = Screen::Notice;
         return Vec::new();
+    }
+    if finished && !shift::unread(app).is_empty() {
+        app.say(
+            Level::Info,
+            "every feature is finished; the handover notes not yet read are kept for the lead's review",
+        );
     }
     let started = app
         .doc

@@ -6,7 +6,7 @@ use super::chrome::{self, Frame5};
 use super::keymap::Action;
 use super::screens;
 use super::theme::Theme;
-use crate::traveller::{Feature, Step};
+use crate::traveller::{Feature, FeatureKind, Step};
 use ratatui::Frame;
 use ratatui::layout::Rect;
 use ratatui::style::Style;
@@ -88,6 +88,17 @@ fn hidden_keys(app: &App) -> Vec<Action> {
         if step == Step::Settle && app.attempt().is_some_and(|a| a.settle.is_some()) {
             hide.push(Action::Skip);
         }
+        if step == Step::Stack && app.ui.remedies.is_none() {
+            hide.push(Action::Remedies);
+        }
+        if step == Step::Stack
+            && app
+                .attempt()
+                .is_some_and(|a| a.stack_b.is_some() || a.stack_pivot.is_some())
+        {
+            // two stacks from one set: its one pair of protectors stays off
+            hide.push(Action::Protectors);
+        }
     }
     hide
 }
@@ -149,13 +160,12 @@ fn flow_header(f: &mut Frame, area: Rect, app: &App, step: Step) -> Rect {
     };
     let attempt = app.attempt().map_or(1, |a| a.number);
     let reached = app.attempt().map_or(Step::Fixture, |a| a.step);
+    let name = format!("{} {}", feat.id, feat.name);
+    let rest = format!("  tol {}  attempt {attempt}", feat.tolerance);
+    let room = (area.width as usize).saturating_sub(name.chars().count() + rest.chars().count() + 2);
     let head = Line::from(vec![
-        Span::styled(format!("{} {}", feat.id, feat.name), t.title()),
-        Span::raw(format!(
-            "  {}  tol {}  attempt {attempt}",
-            nominal_text(feat),
-            feat.tolerance
-        )),
+        Span::styled(name, t.title()),
+        Span::raw(format!("  {}{rest}", nominal_within(feat, room))),
     ]);
     let mut bar: Vec<Span> = Vec::new();
     for (i, s) in STEPS.iter().enumerate() {
@@ -171,11 +181,9 @@ fn flow_header(f: &mut Frame, area: Rect, app: &App, step: Step) -> Rect {
             bar.push(Span::styled(format!(" {name}"), t.dim()));
         }
     }
+    // one line each, cut at the edge rather than wrapped over the step bar
     let rows = Rect::new(area.x, area.y, area.width, 2.min(area.height));
-    f.render_widget(
-        Paragraph::new(vec![head, Line::from(bar)]).wrap(Wrap { trim: false }),
-        rows,
-    );
+    f.render_widget(Paragraph::new(vec![head, Line::from(bar)]), rows);
     Rect::new(
         area.x,
         area.y + rows.height,
@@ -184,8 +192,12 @@ fn flow_header(f: &mut Frame, area: Rect, app: &App, step: Step) -> Rect {
     )
 }
 
-/// The nominal as shown: the setting angle, and what it is for tapers and compound angles.
+/// The nominal as shown: the setting angle; a taper's half (the setting) and included angles;
+/// a compound angle's two views and its true slope.
 pub fn nominal_text(f: &Feature) -> String {
+    if f.kind != FeatureKind::Plain {
+        return f.angle_words();
+    }
     match (f.nominal, f.setting_angle()) {
         (Some(n), Some(s)) if (n.deg() - s.deg()).abs() > 1e-9 => {
             format!("{} (set {})", n.dms(0), s.dms(0))
@@ -193,6 +205,46 @@ pub fn nominal_text(f: &Feature) -> String {
         (_, Some(s)) => s.dms(0),
         (Some(n), None) => n.dms(0),
         (None, None) => "no angle".into(),
+    }
+}
+
+/// The nominal in at most `room` columns: the whole of it, or its first part when that is too
+/// long (a compound angle's views without the true slope, a taper's half angle).
+pub fn nominal_within(f: &Feature, room: usize) -> String {
+    let full = nominal_text(f);
+    if full.chars().count() <= room {
+        full
+    } else {
+        nominal_parts(f).0
+    }
+}
+
+/// The nominal in two parts, for a narrow column: the second part (a compound angle's true
+/// slope, a taper's included angle) goes on a line of its own.
+pub fn nominal_parts(f: &Feature) -> (String, Option<String>) {
+    match f.kind {
+        FeatureKind::Compound => match &f.compound {
+            Some(c) => (
+                format!(
+                    "A {} / B {}",
+                    crate::traveller::kinds::short(c.a),
+                    crate::traveller::kinds::short(c.b)
+                ),
+                Some(format!("(true slope {})", c.true_slope().dm())),
+            ),
+            None => (nominal_text(f), None),
+        },
+        FeatureKind::Taper => match f.taper.as_ref().map(|t| t.half_angle()) {
+            Some(Ok(h)) => (
+                format!("half {}", h.dms(0)),
+                Some(format!(
+                    "incl {}",
+                    crate::units::Angle::from_deg(2.0 * h.deg()).dms(0)
+                )),
+            ),
+            _ => (nominal_text(f), None),
+        },
+        FeatureKind::Plain => (nominal_text(f), None),
     }
 }
 

@@ -177,3 +177,68 @@ pub fn assert_reopens(app: &App) {
         "the saved job has problems: {problems:#?}\n{text}"
     );
 }
+
+/// From the overview of a fresh plan: open the feature at `index` (0 = F1), take the first
+/// ranked fixture and set.
+pub fn to_stack_of(app: &mut App, runner: &mut Runner, index: usize) {
+    for _ in 0..index {
+        act(app, runner, Action::Down);
+    }
+    to_stack(app, runner);
+}
+
+/// Tick every block of every stack of the attempt, then confirm.
+pub fn build_all(app: &mut App, runner: &mut Runner) {
+    let n = app
+        .attempt()
+        .map_or(0, tiltbook::tui::flow::stack::block_count);
+    app.ui.stack_sel = 0;
+    for _ in 0..n {
+        act(app, runner, Action::Tick);
+    }
+    enter(app, runner);
+}
+
+/// From a confirmed stack to the readings: cautions confirmed, the wait skipped.
+pub fn stack_to_readings(app: &mut App, runner: &mut Runner) {
+    build_all(app, runner);
+    enter(app, runner); // safety confirmed
+    act(app, runner, Action::Skip);
+    enter(app, runner); // to readings
+}
+
+/// A one-feature plan with a small angle (0°30', ±0°01').
+pub fn small_angle_plan() -> Traveller {
+    use tiltbook::traveller::{Feature, Job};
+    use tiltbook::units::{Angle, Tolerance, Unit};
+    let job = Job {
+        id: "J-9001".into(),
+        part: "TP-7 test plate".into(),
+        quantity: 1,
+        unit: Unit::In,
+        ..Job::default()
+    };
+    Traveller::plan(
+        job,
+        vec![Feature::plain(
+            "F1",
+            "shallow ramp",
+            Angle::from_deg(0.5),
+            Tolerance::symmetric(Angle::from_deg(1.0 / 60.0)),
+        )],
+    )
+}
+
+/// Open F1 of `doc`, choose the fixture `id` and the first set.
+pub fn to_stack_on(app: &mut App, runner: &mut Runner, id: &str) {
+    enter(app, runner); // open F1
+    let i = app
+        .ui
+        .fixtures
+        .iter()
+        .position(|o| app.shop.fixtures[o.index].id == id)
+        .expect("the fixture is offered");
+    app.ui.fixture_sel = i;
+    enter(app, runner);
+    enter(app, runner); // first set
+}

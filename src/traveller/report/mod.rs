@@ -3,13 +3,16 @@
 //! plain text, Markdown, or one standalone HTML file that prints on A4 and Letter.
 
 mod doc;
+mod flags;
 mod html;
+mod rows;
 
 pub use doc::{Block, Doc};
+pub use flags::{Flag, changed_fields, flags, sweep_travel};
 
-use super::digest::{self, Change};
 use super::model::*;
-use crate::units::{Angle, Length, Unit};
+use crate::units::{Length, Unit};
+use rows::{attempt_stack_cell, judgement_rows, nominal_row, stack_rows};
 use serde::Serialize;
 use std::str::FromStr;
 
@@ -36,138 +39,6 @@ impl FromStr for Format {
     }
 }
 
-/// Straightness taken as large when, as an angle over the travel, it passes this share of
-/// the tightest tolerance side (common practice (no source)).
-pub const STRAIGHTNESS_SHARE: f64 = 0.25;
-
-/// Something about a feature worth a second look.
-#[derive(Debug, Clone, PartialEq, Eq)]
-pub enum Flag {
-    /// A stack block was changed by hand from the solver's choice.
-    SwappedByHand,
-    /// The fixture or block set was past its calibration due date when used.
-    CalibrationOutOfDate(String),
-    /// The verdict is inside the doubt band.
-    DoubtBand,
-    /// The surface is not straight against the tolerance.
-    LargeStraightness,
-    /// Signed values changed after the sign-off (field names).
-    ChangedAfterSignOff(Vec<String>),
-}
-
-impl Flag {
-    /// Plain words for the flag.
-    pub fn describe(&self) -> String {
-        match self {
-            Flag::SwappedByHand => "stack swapped by hand".into(),
-            Flag::CalibrationOutOfDate(w) => format!("calibration out of date: {w}"),
-            Flag::DoubtBand => "inside the doubt band".into(),
-            Flag::LargeStraightness => "large straightness against the tolerance".into(),
-            Flag::ChangedAfterSignOff(f) => format!("changed after sign-off: {}", f.join(", ")),
-        }
-    }
-}
-
-/// The flags of one feature.
-pub fn flags(t: &Traveller, f: &Feature) -> Vec<Flag> {
-    let mut out = Vec::new();
-    if f.attempts.iter().any(|a| {
-        a.stack
-            .iter()
-            .chain(a.stack_b.iter())
-            .any(Stack::swapped_by_hand)
-    }) {
-        out.push(Flag::SwappedByHand);
-    }
-    let mut late: Vec<String> = Vec::new();
-    for a in &f.attempts {
-        if let Some(c) = &a.fixture
-            && let Some(due) = t.fixture(&c.id).and_then(|x| x.due)
-            && c.at.date() > due
-        {
-            late.push(format!("fixture {} (due {due})", c.id));
-        }
-        if let Some(c) = &a.block_set
-            && let Some(due) = t.block_set(&c.id).and_then(|x| x.due)
-            && c.at.date() > due
-        {
-            late.push(format!("block set {} (due {due})", c.id));
-        }
-    }
-    late.dedup();
-    if !late.is_empty() {
-        out.push(Flag::CalibrationOutOfDate(late.join(", ")));
-    }
-    if let Some(a) = f.accepted_attempt()
-        && let Some(j) = &a.judgement
-    {
-        if j.verdict == Verdict::Doubt {
-            out.push(Flag::DoubtBand);
-        }
-        if let Some(travel) = a.sweep.as_ref().and_then(sweep_travel)
-            && travel.nm() > 0
-        {
-            let ang = Angle::from_rad((j.fit.straightness.nm() as f64 / travel.nm() as f64).atan());
-            if ang.arcsec() > STRAIGHTNESS_SHARE * f.tolerance.tightest().arcsec() {
-                out.push(Flag::LargeStraightness);
-            }
-        }
-    }
-    let changed = changed_fields(t, f);
-    if !changed.is_empty() {
-        out.push(Flag::ChangedAfterSignOff(changed));
-    }
-    out
-}
-
-/// The fields of `f` changed since any sign-off covering it.
-pub fn changed_fields(t: &Traveller, f: &Feature) -> Vec<String> {
-    let mut out: Vec<String> = Vec::new();
-    for s in t
-        .signoffs
-        .iter()
-        .filter(|s| digest::withdrawn_by(t, s).is_none())
-    {
-        let prefix = match s.scope {
-            Scope::Feature if s.feature.as_deref() == Some(f.id.as_str()) => String::new(),
-            Scope::Job => format!("{}.", f.id),
-            _ => continue,
-        };
-        for c in digest::verify(t, s) {
-            let name = match c {
-                Change::Field(n) | Change::Added(n) => n,
-                Change::DigestEdited | Change::Unnamed => "sign-off record".into(),
-                Change::FeatureGone(_) => continue,
-            };
-            let name = if prefix.is_empty() {
-                name
-            } else if let Some(n) = name.strip_prefix(&prefix) {
-                n.to_string()
-            } else if name == "sign-off record" {
-                name
-            } else {
-                continue;
-            };
-            if !out.contains(&name) {
-                out.push(name);
-            }
-        }
-    }
-    out
-}
-
-/// The length of a sweep's travel (spaced: as given; pairs: first to last position).
-pub fn sweep_travel(s: &Sweep) -> Option<Length> {
-    match s.mode {
-        SweepMode::Spaced => s.travel,
-        SweepMode::Pairs => {
-            let min = s.pairs.iter().map(|p| p.position).min()?;
-            let max = s.pairs.iter().map(|p| p.position).max()?;
-            Some(max - min)
-        }
-    }
-}
-
 fn written<T: Serialize>(v: &T) -> String {
     serde_json::to_value(v)
         .ok()
@@ -183,32 +54,29 @@ fn kind_text(f: &Feature) -> String {
     match f.kind {
         FeatureKind::Plain => "plain angle".into(),
         FeatureKind::Taper => {
-            let given = f.taper.as_ref().map_or(String::new(), |t| {
-                if let Some(r) = &t.ratio {
-                    format!(" {r}")
-                } else if let Some(p) = t.per_foot {
-                    format!(" {} per foot", p.show(Unit::In))
-                } else if let Some(i) = t.included {
-                    format!(" included {}", i.dms(0))
-                } else if let Some(h) = t.half {
-                    format!(" half angle {}", h.dms(0))
-                } else {
-                    String::new()
-                }
-            });
+            let given = f
+                .taper
+                .as_ref()
+                .map_or(String::new(), |t| format!(" {}", t.given()));
             format!("taper{given}")
         }
         FeatureKind::Compound => f.compound.as_ref().map_or("compound".into(), |c| {
             let (n, far) = c.plate_angles();
             format!(
-                "compound A {} B {} (plates {} and {}, true slope {})",
-                c.a.dms(0),
-                c.b.dms(0),
+                "compound angle: near plate (view {}) set to {}, other plate to {}",
+                c.letters().0,
                 n.dms(0),
-                far.dms(1),
-                c.true_slope().dms(1)
+                far.dms(1)
             )
         }),
+    }
+}
+
+/// The angle as the features table shows it.
+fn angle_cell(f: &Feature) -> String {
+    match f.kind {
+        FeatureKind::Plain => f.setting_angle().map_or("—".into(), |a| a.dms(0)),
+        _ => f.angle_words(),
     }
 }
 
@@ -279,7 +147,7 @@ pub fn document(t: &Traveller) -> Doc {
             vec![
                 f.id.clone(),
                 f.name.clone(),
-                f.setting_angle().map_or("—".into(), |a| a.dms(0)),
+                angle_cell(f),
                 f.tolerance.to_string(),
                 f.state.label().to_string(),
                 v,
@@ -292,7 +160,7 @@ pub fn document(t: &Traveller) -> Doc {
         head: [
             "Id",
             "Feature",
-            "Setting",
+            "Angle",
             "Tolerance",
             "State",
             "Verdict",
@@ -322,11 +190,7 @@ fn feature_section(t: &Traveller, f: &Feature, u: Unit, d: &mut Doc) {
         "Kind".into(),
         format!("{}; {}", kind_text(f), written(&f.work).replace('_', " ")),
     ));
-    rows.push((
-        "Nominal".into(),
-        f.setting_angle()
-            .map_or("—".into(), |a| format!("{} ({})", a.dms(1), a.decimal(4))),
-    ));
+    rows.push(("Nominal".into(), nominal_row(f)));
     rows.push(("Tolerance".into(), f.tolerance.to_string()));
     rows.push(("State".into(), f.state.label().into()));
     rows.push(("Attempts".into(), f.attempts.len().to_string()));
@@ -345,28 +209,18 @@ fn feature_section(t: &Traveller, f: &Feature, u: Unit, d: &mut Doc) {
                 .map_or(String::new(), |x| format!(" (grade {})", x.grade));
             rows.push(("Block set".into(), format!("{}{g}", c.id)));
         }
-        if let Some(s) = &a.stack {
-            rows.push(("Stack".into(), stack_text(s, u)));
-            rows.push((
-                "Achieved angle".into(),
-                format!("{} ({})", s.achieved.dms(1), s.achieved.decimal(4)),
-            ));
-        }
-        if let Some(s) = &a.stack_b {
-            rows.push((
-                "Second stack".into(),
-                format!("{} → {}", stack_text(s, u), s.achieved.dms(1)),
-            ));
-        }
+        stack_rows(f, a, u, &mut rows);
         if let Some(j) = &a.judgement {
-            rows.push(("Residual".into(), j.residual.arcsec_signed(1)));
-            rows.push(("Deviation".into(), j.deviation.arcsec_signed(1)));
-            rows.push(("U (k = 2)".into(), format!("{:.1}\"", j.u.arcsec())));
-            rows.push(("Straightness".into(), j.fit.straightness.show_fine(u)));
+            judgement_rows(f, j, u, &mut rows);
             let rule = written(&j.rule);
+            let over = if j.view_b.is_some() {
+                " over both views"
+            } else {
+                ""
+            };
             rows.push((
                 "Verdict".into(),
-                format!("{} ({rule} rule)", j.verdict.label()),
+                format!("{}{over} ({rule} rule)", j.verdict.label()),
             ));
             if let Some(dd) = &j.doubt_decision {
                 rows.push((
@@ -413,8 +267,15 @@ fn feature_section(t: &Traveller, f: &Feature, u: Unit, d: &mut Doc) {
                 let j = a.judgement.as_ref();
                 vec![
                     a.number.to_string(),
-                    a.stack.as_ref().map_or("—".into(), |s| len(s.height, u)),
-                    j.map_or("—".into(), |j| j.deviation.arcsec_signed(1)),
+                    attempt_stack_cell(a, u),
+                    j.map_or("—".into(), |j| match &j.view_b {
+                        Some(v) => format!(
+                            "{} / {}",
+                            j.deviation.arcsec_signed(1),
+                            v.deviation.arcsec_signed(1)
+                        ),
+                        None => j.deviation.arcsec_signed(1),
+                    }),
                     j.map_or("—".into(), |j| j.verdict.label().to_string()),
                     j.and_then(|j| j.correction.as_ref())
                         .map_or("—".into(), |c| {

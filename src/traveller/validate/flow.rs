@@ -160,8 +160,10 @@ fn field_path(t: &Traveller, feature: &str, field: &str) -> String {
         "name" | "nominal" | "tolerance" | "work" | "attempts" => format!("{p}.{field}"),
         "kind" => format!("{p}.kind"),
         "attempt" => a,
-        "fixture" | "block_set" | "stack" | "settle" => format!("{a}.{field}"),
+        "fixture" | "block_set" | "stack" | "settle" | "stack_pivot" => format!("{a}.{field}"),
         "readings" => format!("{a}.sweep"),
+        "readings_b" => format!("{a}.sweep_b"),
+        "view_b" => format!("{a}.judgement.view_b"),
         "fit" | "residual" | "deviation" | "U" | "verdict" => format!("{a}.judgement.{field}"),
         _ => p,
     }

@@ -4,7 +4,7 @@
 use super::super::app::{App, Effect, Level, Prompt, PromptKind, Redo};
 use super::super::field::Field;
 use super::super::keymap::{Action, Input};
-use super::super::rank::{list_sets, rank_fixtures};
+use super::super::rank::{RankFor, likely_set, list_sets, rank_fixtures, set_grade};
 use super::super::update::{enter_step, record, refuse_read_only};
 use super::{height_step, here, move_sel, setting};
 use crate::traveller::{Choice, EventKind, Stamp, Step};
@@ -22,7 +22,36 @@ pub fn enter_fixture(app: &mut App) {
     };
     let step = height_step(app);
     let kind = app.feature().map(|f| f.kind).unwrap_or_default();
-    app.ui.fixtures = rank_fixtures(&app.shop, kind, angle, step, app.unit(), app.today);
+    let chosen = chosen_id(app, false);
+    // the set used last on this job
+    let used = app
+        .doc
+        .features
+        .iter()
+        .flat_map(|f| f.attempts.iter())
+        .filter_map(|a| a.block_set.as_ref())
+        .max_by_key(|c| c.at)
+        .map(|c| c.id.clone());
+    let likely = likely_set(
+        &app.shop,
+        chosen.as_deref(),
+        used.as_deref(),
+        app.unit(),
+        app.today,
+    );
+    let grade = likely.and_then(set_grade);
+    app.ui.rank_set = likely.map(|s| (s.snap.id.clone(), s.snap.grade.clone(), grade.is_some()));
+    app.ui.fixtures = rank_fixtures(
+        &app.shop,
+        &RankFor {
+            kind,
+            setting: angle,
+            step,
+            unit: app.unit(),
+            today: app.today,
+            grade,
+        },
+    );
     let chosen = app
         .attempt()
         .and_then(|a| a.fixture.as_ref())

@@ -4,6 +4,7 @@
 
 pub mod choose;
 pub mod readings;
+pub mod remedy;
 pub mod review;
 pub mod settle;
 pub mod shift;

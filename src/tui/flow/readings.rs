@@ -13,10 +13,40 @@ use crate::units::Length;
 // ---------------------------------------------------------------- readings
 
 pub fn enter_readings(app: &mut App) {
+    // a compound angle: the other view once the near plate's view is in
+    let other = is_compound(app)
+        && app
+            .attempt()
+            .and_then(|a| a.sweep.as_ref())
+            .is_some_and(Sweep::complete);
+    show_view(app, other);
+}
+
+/// Is the feature being worked a compound angle (two views to sweep)?
+pub fn is_compound(app: &App) -> bool {
+    app.feature().is_some_and(|f| f.compound_angles().is_some())
+}
+
+/// The letter of the view on screen (compound angles), e.g. `A`.
+pub fn view_letter(app: &App) -> Option<&'static str> {
+    let c = app.feature()?.compound_angles()?;
+    let (near, other) = c.letters();
+    Some(if app.ui.readings.other_view {
+        other
+    } else {
+        near
+    })
+}
+
+/// Show the readings of one view (the other plate's when `other`), fields filled from it.
+pub fn show_view(app: &mut App, other: bool) {
     let unit = app.unit();
-    let sweep = app.attempt().and_then(|a| a.sweep.clone());
+    app.ui.readings.other_view = other && is_compound(app);
+    let sweep = current_sweep(app).cloned();
     let r = &mut app.ui.readings;
+    let keep = r.other_view;
     *r = Default::default();
+    r.other_view = keep;
     r.travel = Field::new(16);
     r.points = Field::new(3);
     r.position = Field::new(16);
@@ -40,19 +70,27 @@ pub fn enter_readings(app: &mut App) {
     }
 }
 
-/// The sweep of the attempt (a new spaced one when none yet).
+/// The sweep of the view on screen, if begun.
+pub fn current_sweep(app: &App) -> Option<&Sweep> {
+    let a = app.attempt()?;
+    if app.ui.readings.other_view {
+        a.sweep_b.as_ref()
+    } else {
+        a.sweep.as_ref()
+    }
+}
+
+/// The sweep of the view on screen (a new spaced one when none yet).
 fn sweep_of(app: &App) -> Sweep {
-    app.attempt()
-        .and_then(|a| a.sweep.clone())
-        .unwrap_or(Sweep {
-            mode: SweepMode::Spaced,
-            travel: None,
-            points: None,
-            readings: Vec::new(),
-            pairs: Vec::new(),
-            resolution: Some(app.shop.settings.indicator_resolution),
-            entered: None,
-        })
+    current_sweep(app).cloned().unwrap_or(Sweep {
+        mode: SweepMode::Spaced,
+        travel: None,
+        points: None,
+        readings: Vec::new(),
+        pairs: Vec::new(),
+        resolution: Some(app.shop.settings.indicator_resolution),
+        entered: None,
+    })
 }
 
 /// Readings entered so far.
@@ -132,6 +170,8 @@ pub fn fields_for(mode: SweepMode) -> &'static [RField] {
 
 fn save_sweep(app: &mut App, s: Sweep, kind: Option<(EventKind, String)>) -> Vec<Effect> {
     let by = app.operator.clone();
+    let other = app.ui.readings.other_view;
+    let view = view_letter(app).map_or(String::new(), |v| format!("view {v} "));
     let had_verdict = app.attempt().is_some_and(|a| a.judgement.is_some());
     if let Some(a) = app.attempt_mut() {
         let mut s = s;
@@ -139,7 +179,11 @@ fn save_sweep(app: &mut App, s: Sweep, kind: Option<(EventKind, String)>) -> Vec
             by,
             at: Stamp::now(),
         });
-        a.sweep = Some(s);
+        if other {
+            a.sweep_b = Some(s);
+        } else {
+            a.sweep = Some(s);
+        }
         a.judgement = None;
         a.step = Step::Sweep;
     }
@@ -151,7 +195,7 @@ fn save_sweep(app: &mut App, s: Sweep, kind: Option<(EventKind, String)>) -> Vec
     }
     // the state moves with logged readings only, so the log and the state agree
     if let Some((k, d)) = kind {
-        record(app, k, d);
+        record(app, k, format!("{view}{d}"));
     }
     vec![Effect::Save]
 }
@@ -267,6 +311,9 @@ fn readings_enter(app: &mut App, mut s: Sweep, focus: RField) -> Vec<Effect> {
     if blank && (focus == RField::Reading || focus == RField::Position) {
         let other_blank = app.ui.readings.position.is_blank() && app.ui.readings.reading.is_blank();
         if s.complete() && (s.mode == SweepMode::Spaced || other_blank) {
+            if is_compound(app) && !app.ui.readings.other_view {
+                return to_other_view(app);
+            }
             return to_verdict(app);
         }
         if let Some(a) = app.attempt()
@@ -326,10 +373,15 @@ fn readings_enter(app: &mut App, mut s: Sweep, focus: RField) -> Vec<Effect> {
                     s.readings.push(r);
                     let k = s.readings.len();
                     app.ui.readings.reading.clear();
+                    let then = if is_compound(app) && !app.ui.readings.other_view {
+                        "the other view's readings"
+                    } else {
+                        "the verdict"
+                    };
                     app.say(
                         Level::Done,
                         if k as u32 == n {
-                            format!("reading {k} of {n} saved; all in: press Enter for the verdict")
+                            format!("reading {k} of {n} saved; all in: press Enter for {then}")
                         } else {
                             format!("reading {k} of {n} saved")
                         },
@@ -377,12 +429,34 @@ fn readings_enter(app: &mut App, mut s: Sweep, focus: RField) -> Vec<Effect> {
     }
 }
 
+/// A compound angle: the near plate's view is in; on to the other view's readings.
+fn to_other_view(app: &mut App) -> Vec<Effect> {
+    show_view(app, true);
+    let (near, other) = app
+        .feature()
+        .and_then(|f| f.compound_angles())
+        .map_or(("A", "B"), |c| c.letters());
+    app.say(
+        Level::Done,
+        format!("view {near} is in: now sweep view {other} along the other plate (Esc: back to {near})"),
+    );
+    Vec::new()
+}
+
 fn to_verdict(app: &mut App) -> Vec<Effect> {
     if app.attempt().is_some_and(|a| a.judgement.is_some()) {
         return enter_step(app, here(app), Step::Verdict);
     }
     if refuse_read_only(app) {
         return Vec::new();
+    }
+    if is_compound(app)
+        && !app
+            .attempt()
+            .and_then(|a| a.sweep_b.as_ref())
+            .is_some_and(Sweep::complete)
+    {
+        return to_other_view(app);
     }
     let (Some(f), Some(a)) = (app.feature(), app.attempt()) else {
         return Vec::new();

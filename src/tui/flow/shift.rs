@@ -5,7 +5,7 @@ use super::super::app::{App, Effect, Level, Prompt, PromptKind, Screen};
 use super::super::field::Field;
 use super::super::keymap::{Action, Input};
 use super::super::update::{land, quit_now};
-use crate::traveller::{FeatureState, Handover, Return};
+use crate::traveller::{FeatureState, Handover, Return, Step};
 
 /// Something left for the person opening the job.
 #[derive(Debug, Clone, Copy, PartialEq, Eq)]
@@ -111,7 +111,19 @@ pub fn notice_key(app: &mut App, input: Input) -> Vec<Effect> {
     effects
 }
 
-/// Is the operator asked for a note on quitting? Work unfinished, opened for work, name known.
+/// Is a feature's work under way: an attempt with its fixture chosen and not yet finished?
+pub fn mid_feature(app: &App) -> bool {
+    app.doc.features.iter().any(|f| {
+        !f.is_finished()
+            && f.state != FeatureState::Returned
+            && f
+                .current_attempt()
+                .is_some_and(|a| a.fixture.is_some() && a.step != Step::Done)
+    })
+}
+
+/// Is the operator asked for a note on quitting? Opened for work, name known, work unfinished,
+/// and something to hand over: an entry confirmed in this session or a feature under way.
 pub fn wants_handover(app: &App) -> bool {
     !app.read_only
         && !app.review_mode
@@ -122,6 +134,7 @@ pub fn wants_handover(app: &App) -> bool {
             .as_ref()
             .is_none_or(|p| p.kind != PromptKind::Handover)
         && app.doc.features.iter().any(|f| !f.is_finished())
+        && (app.worked || mid_feature(app))
 }
 
 /// Ask for the note for the next shift (over whatever was on screen).

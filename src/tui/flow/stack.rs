@@ -1,20 +1,105 @@
 //! The stack: solved for the height, ticked block by block as it is wrung, a block swapped for
-//! the one really used (the angle follows what was built), protectors on or off.
+//! the one really used (the angle follows what was built), protectors on or off. An attempt may
+//! hold two stacks: the two plates of a compound sine plate (`stack` near, `stack_b` other), or
+//! a stack under each roll for a small angle (`stack` raised, `stack_pivot` pivot); the screen
+//! lists them one after the other and the selection runs through both.
 
-use super::super::app::{App, Effect, Level, Prompt, PromptKind, SolveRequest};
+use super::super::app::{App, Effect, Level, Prompt, PromptKind, RemedyUi, SolveRequest};
 use super::super::field::Field;
 use super::super::keymap::{Action, Input};
-use super::super::rank::geometry;
+use super::super::rank::{geometry, out_of_date, suits};
+use super::super::solve::{SmallCheck, SolveJob, Solution};
 use super::super::update::{enter_step, reach, record, refuse_read_only};
-use super::{height_step, move_sel};
+use super::{height_step, move_sel, remedy};
+use crate::blocks::small::Candidate;
 use crate::geometry::plan;
-use crate::traveller::{EventKind, Mark, Stack, StackBlock, Stamp, Step, Swap};
+use crate::traveller::{Attempt, EventKind, Mark, Stack, StackBlock, Stamp, Step, Swap};
 use crate::units::{Angle, Length};
 
-// ---------------------------------------------------------------- stack
+// ---------------------------------------------------------------- the stacks of an attempt
 
-/// The height to build: a failed attempt's corrected height when this attempt follows one on
-/// the same fixture, else the setting angle's height rounded to the set's step.
+/// Which stack of an attempt.
+#[derive(Debug, Clone, Copy, PartialEq, Eq)]
+pub enum Which {
+    /// `stack`: the only one, the near plate's, or the one under the raised roll.
+    Main,
+    /// `stack_b`: the other plate's (compound angles).
+    Second,
+    /// `stack_pivot`: the one under the pivot roll (small angles, two stacks).
+    Pivot,
+}
+
+/// The stacks of an attempt in the order they are listed.
+pub fn parts(a: &Attempt) -> Vec<(Which, &Stack)> {
+    let mut v = Vec::new();
+    if let Some(s) = &a.stack {
+        v.push((Which::Main, s));
+    }
+    if let Some(s) = &a.stack_b {
+        v.push((Which::Second, s));
+    }
+    if let Some(s) = &a.stack_pivot {
+        v.push((Which::Pivot, s));
+    }
+    v
+}
+
+/// What a stack is, in words, when the attempt has two.
+pub fn part_name(a: &Attempt, w: Which) -> &'static str {
+    match w {
+        Which::Main if a.stack_b.is_some() => "Near plate",
+        Which::Main if a.stack_pivot.is_some() => "Under the raised roll",
+        Which::Main => "Stack",
+        Which::Second => "Other plate",
+        Which::Pivot => "Under the pivot roll",
+    }
+}
+
+/// Blocks in every stack of the attempt.
+pub fn block_count(a: &Attempt) -> usize {
+    parts(a).iter().map(|(_, s)| s.blocks.len()).sum()
+}
+
+/// The stack and position of the `sel`-th block counted through every stack.
+pub fn locate(a: &Attempt, sel: usize) -> Option<(Which, usize)> {
+    let mut left = sel;
+    for (w, s) in parts(a) {
+        if left < s.blocks.len() {
+            return Some((w, left));
+        }
+        left -= s.blocks.len();
+    }
+    None
+}
+
+fn stack_mut(a: &mut Attempt, w: Which) -> Option<&mut Stack> {
+    match w {
+        Which::Main => a.stack.as_mut(),
+        Which::Second => a.stack_b.as_mut(),
+        Which::Pivot => a.stack_pivot.as_mut(),
+    }
+}
+
+fn any_wrung(a: &Attempt) -> bool {
+    parts(a).iter().any(|(_, s)| s.blocks.iter().any(|b| b.wrung))
+}
+
+// ---------------------------------------------------------------- the height asked for
+
+/// The attempt before this one on the same fixture, when it was judged.
+fn judged_before(app: &App) -> Option<&Attempt> {
+    let f = app.feature()?;
+    let a = f.current_attempt()?;
+    let fid = &a.fixture.as_ref()?.id;
+    f.attempts
+        .iter()
+        .rev()
+        .nth(1)
+        .filter(|p| p.fixture.as_ref().is_some_and(|c| &c.id == fid) && p.judgement.is_some())
+}
+
+/// The height to build with one stack: a failed attempt's corrected height when this attempt
+/// follows one on the same fixture, else the setting angle's height rounded to the set's step.
 pub fn target_height(app: &App) -> Result<Length, String> {
     let f = app.feature().ok_or("no feature is open")?;
     let a = f.current_attempt().ok_or("no attempt is open")?;
@@ -28,9 +113,9 @@ pub fn target_height(app: &App) -> Result<Length, String> {
         .doc
         .fixture(&fid)
         .ok_or_else(|| format!("the fixture {fid} is not in the traveller"))?;
-    if let Some(prev) = f.attempts.iter().rev().nth(1)
-        && prev.fixture.as_ref().is_some_and(|c| c.id == fid)
-        && let Some(c) = prev.judgement.as_ref().and_then(|j| j.correction.as_ref())
+    if let Some(c) = judged_before(app)
+        .and_then(|p| p.judgement.as_ref())
+        .and_then(|j| j.correction.as_ref())
     {
         return Ok(c.height);
     }
@@ -48,21 +133,114 @@ pub fn target_height(app: &App) -> Result<Length, String> {
     Ok(p.direct.height)
 }
 
+/// The shop's other fixtures that could set `angle` for this feature instead (made for its
+/// kind, rated for the angle, calibration in date): the longer ones are the small-angle remedy.
+pub fn candidates(app: &App, angle: Angle, current: &str) -> Vec<Candidate> {
+    let kind = app.feature().map(|f| f.kind).unwrap_or_default();
+    app.shop
+        .fixtures
+        .iter()
+        .filter(|fx| fx.id != current && suits(fx.kind, kind).is_ok())
+        .filter(|fx| !out_of_date(fx.due, app.today))
+        .filter(|fx| fx.max_angle.is_none_or(|m| angle.deg() <= m.deg() + 1e-9))
+        .map(|fx| Candidate {
+            id: fx.id.clone(),
+            fixture: geometry(fx),
+            largest_stack: fx.max_stack,
+            unit: app.unit(),
+            note: None,
+        })
+        .collect()
+}
+
+/// What to ask the solver for this attempt.
+fn job_for(app: &App, protectors: bool) -> Result<SolveJob, String> {
+    let f = app.feature().ok_or("no feature is open")?;
+    let a = f.current_attempt().ok_or("no attempt is open")?;
+    let fid = a.fixture.as_ref().ok_or("choose the fixture first")?.id.clone();
+    let fx = app
+        .doc
+        .fixture(&fid)
+        .ok_or_else(|| format!("the fixture {fid} is not in the traveller"))?;
+    let geo = geometry(fx);
+    let before = judged_before(app);
+    let judged = before.and_then(|p| p.judgement.as_ref());
+    if let Some(c) = f.compound_angles() {
+        let setting = c.setting().map_err(|e| e.to_string())?;
+        if let (Some(p), Some(j)) = (before, judged) {
+            let near = j.correction.as_ref().map(|c| c.height);
+            let other = j
+                .view_b
+                .as_ref()
+                .and_then(|v| v.correction.as_ref())
+                .map(|c| c.height);
+            if near.is_some() || other.is_some() {
+                let near = near.or(p.stack.as_ref().map(|s| s.height));
+                let other = other.or(p.stack_b.as_ref().map(|s| s.height));
+                if let (Some(near), Some(other)) = (near, other) {
+                    return Ok(SolveJob::Plates {
+                        near,
+                        other,
+                        fixture: geo,
+                        setting,
+                    });
+                }
+            }
+        }
+        return Ok(SolveJob::Compound {
+            fixture: geo,
+            setting,
+        });
+    }
+    if let Some(c) = judged.and_then(|j| j.correction.as_ref()) {
+        if before.is_some_and(|p| p.stack_pivot.is_some()) {
+            return Ok(SolveJob::Difference {
+                difference: c.height,
+                tallest: fx.max_stack,
+            });
+        }
+        return Ok(SolveJob::Single {
+            height: c.height,
+            protectors,
+            small: None,
+        });
+    }
+    let height = target_height(app)?;
+    let angle = f
+        .setting_angle()
+        .ok_or("this feature has no angle to set")?;
+    Ok(SolveJob::Single {
+        height,
+        protectors,
+        small: Some(SmallCheck {
+            fixture: geo,
+            angle,
+            largest: fx.max_stack,
+            candidates: candidates(app, angle, &fid),
+        }),
+    })
+}
+
 pub fn enter_stack(app: &mut App) -> Vec<Effect> {
     app.ui.stack_sel = app
         .attempt()
-        .and_then(|a| a.stack.as_ref())
-        .and_then(|s| s.blocks.iter().position(|b| !b.wrung))
+        .map(|a| {
+            parts(a)
+                .iter()
+                .flat_map(|(_, s)| s.blocks.iter())
+                .position(|b| !b.wrung)
+                .unwrap_or(0)
+        })
         .unwrap_or(0);
     let needs = app.attempt().is_some_and(|a| a.stack.is_none());
-    if needs && !app.read_only {
+    if needs && !app.read_only && app.ui.remedies.as_ref().is_none_or(|r| !r.open) {
         let protectors = set_of(app).is_some_and(|s| s.snap.protector.is_some());
         return solve_request(app, protectors);
     }
     Vec::new()
 }
 
-fn set_of(app: &App) -> Option<&super::super::shop_view::SetView> {
+pub(super) fn set_of(app: &App) -> Option<&super::super::shop_view::SetView> {
     let id = app.attempt()?.block_set.as_ref()?.id.clone();
     app.shop.set(&id)
 }
@@ -75,16 +253,16 @@ fn solve_request(app: &mut App, protectors: bool) -> Vec<Effect> {
     let Some(set_id) = a.block_set.as_ref().map(|c| c.id.clone()) else {
         return Vec::new();
     };
-    match target_height(app) {
-        Ok(height) => {
+    match job_for(app, protectors) {
+        Ok(job) => {
             app.ui.solving = true;
             app.ui.solve_error = None;
+            app.ui.solve_note = None;
             vec![Effect::Solve(SolveRequest {
                 feature,
                 attempt,
                 set_id,
-                height,
-                protectors,
+                job,
             })]
         }
         Err(e) => {
@@ -99,7 +277,7 @@ pub fn solved(
     app: &mut App,
     feature: usize,
     attempt: u32,
-    result: Result<Vec<StackBlock>, String>,
+    result: Result<Solution, String>,
 ) -> Vec<Effect> {
     let here = app.flow().map(|(i, _)| i) == Some(feature)
         && app.attempt().map(|a| a.number) == Some(attempt);
@@ -107,18 +285,36 @@ pub fn solved(
         return Vec::new();
     }
     app.ui.solving = false;
-    let blocks = match result {
-        Ok(b) => b,
+    let (first, second, note) = match result {
         Err(e) => {
             app.ui.solve_error = Some(e);
             return Vec::new();
         }
+        Ok(Solution::Remedies(small)) => {
+            let fixture_id = app
+                .attempt()
+                .and_then(|a| a.fixture.as_ref())
+                .map(|c| c.id.clone())
+                .unwrap_or_default();
+            let sel = remedy::default_sel(&small);
+            app.ui.remedies = Some(RemedyUi {
+                small,
+                fixture_id,
+                sel,
+                open: true,
+            });
+            return Vec::new();
+        }
+        Ok(Solution::Single { blocks, note }) => (blocks, None, note),
+        Ok(Solution::Two {
+            first,
+            second,
+            note,
+        }) => (first, Some(second), note),
     };
-    match built_stack(app, blocks) {
-        Ok(stack) => {
-            if let Some(a) = app.attempt_mut() {
-                a.stack = Some(stack);
-            }
+    app.ui.solve_note = note;
+    match put_stacks(app, first, second) {
+        Ok(()) => {
             app.ui.stack_sel = 0;
             vec![Effect::Save]
         }
@@ -129,41 +325,91 @@ pub fn solved(
     }
 }
 
-fn built_stack(app: &App, blocks: Vec<StackBlock>) -> Result<Stack, String> {
+fn new_stack(blocks: Vec<StackBlock>) -> Stack {
     let height: Length = blocks.iter().map(|b| b.size).sum();
-    let achieved = achieved_for(app, height)?;
-    Ok(Stack {
+    Stack {
         blocks,
         height,
-        achieved,
+        achieved: Angle::default(),
         swaps: Vec::new(),
         built: None,
-    })
+    }
 }
 
-fn achieved_for(app: &App, height: Length) -> Result<Angle, String> {
+/// Put fresh stacks in the attempt: one, or two (the other plate's for a compound angle, else
+/// the one under the pivot roll), with their angles worked out.
+pub(super) fn put_stacks(
+    app: &mut App,
+    first: Vec<StackBlock>,
+    second: Option<Vec<StackBlock>>,
+) -> Result<(), String> {
+    let compound = app.feature().is_some_and(|f| f.compound_angles().is_some());
+    if let Some(a) = app.attempt_mut() {
+        a.stack = Some(new_stack(first));
+        a.stack_b = None;
+        a.stack_pivot = None;
+        match second {
+            Some(b) if compound => a.stack_b = Some(new_stack(b)),
+            Some(b) => a.stack_pivot = Some(new_stack(b)),
+            None => {}
+        }
+    }
+    refresh_angles(app)
+}
+
+/// Work the heights and angles of the attempt's stacks out again from their blocks: each
+/// plate's own angle (compound), the difference of the two under the rolls, or the one stack.
+pub fn refresh_angles(app: &mut App) -> Result<(), String> {
     let fid = app
         .attempt()
         .and_then(|a| a.fixture.as_ref())
         .map(|c| c.id.clone())
         .ok_or("choose the fixture first")?;
-    let fx = app
-        .doc
-        .fixture(&fid)
-        .ok_or("the fixture is not in the traveller")?;
-    geometry(fx)
-        .angle_for_height(height)
-        .map_err(|e| e.to_string())
+    let geo = geometry(
+        app.doc
+            .fixture(&fid)
+            .ok_or("the fixture is not in the traveller")?,
+    );
+    let angle = |h: Length| geo.angle_for_height(h).map_err(|e| e.to_string());
+    let Some(a) = app.attempt_mut() else {
+        return Ok(());
+    };
+    for s in [&mut a.stack, &mut a.stack_b, &mut a.stack_pivot]
+        .into_iter()
+        .flatten()
+    {
+        s.height = s.block_total();
+    }
+    if let Some(s) = a.stack_b.as_mut() {
+        s.achieved = angle(s.height)?;
+    }
+    let main = a.stack.as_ref().map(|s| s.height);
+    let pivot = a.stack_pivot.as_ref().map(|s| s.height);
+    let set = match (main, pivot) {
+        (Some(m), Some(p)) if m > p => angle(m - p)?,
+        (Some(_), Some(_)) => {
+            return Err(
+                "the stack under the pivot roll is as tall as the raised one; build them again"
+                    .into(),
+            );
+        }
+        (Some(m), None) => angle(m)?,
+        _ => return Ok(()),
+    };
+    for s in [&mut a.stack, &mut a.stack_pivot].into_iter().flatten() {
+        s.achieved = set;
+    }
+    Ok(())
 }
 
 /// May the stack still be changed? Not once the stack has settled or readings were taken on it.
-fn stack_changeable(app: &mut App) -> bool {
+pub(super) fn stack_changeable(app: &mut App) -> bool {
     if refuse_read_only(app) {
         return false;
     }
     let later = app
         .attempt()
-        .is_some_and(|a| a.settle.is_some() || a.sweep.is_some());
+        .is_some_and(|a| a.settle.is_some() || a.sweep.is_some() || a.sweep_b.is_some());
     if later {
         app.say(
             Level::Warn,
@@ -177,7 +423,10 @@ fn stack_changeable(app: &mut App) -> bool {
 /// A change to a built stack un-confirms it (and the safety check that followed).
 fn unbuild(app: &mut App) {
     if let Some(a) = app.attempt_mut() {
-        if let Some(s) = a.stack.as_mut() {
+        for s in [&mut a.stack, &mut a.stack_b, &mut a.stack_pivot]
+            .into_iter()
+            .flatten()
+        {
             s.built = None;
         }
         a.safety = None;
@@ -186,52 +435,34 @@ fn unbuild(app: &mut App) {
 }
 
 pub fn stack_key(app: &mut App, input: Input) -> Vec<Effect> {
-    let n = app
-        .attempt()
-        .and_then(|a| a.stack.as_ref())
-        .map_or(0, |s| s.blocks.len());
+    if app.ui.remedies.as_ref().is_some_and(|r| r.open) {
+        return remedy::remedy_key(app, input);
+    }
+    let n = app.attempt().map_or(0, block_count);
     match input {
         Input::Act(Action::Forward) => confirm_stack(app),
-        Input::Act(Action::Tick) if n > 0 => {
-            if !stack_changeable(app) {
-                return Vec::new();
-            }
-            let sel = app.ui.stack_sel.min(n - 1);
-            let unit = app.unit();
-            let mut detail = String::new();
-            if let Some(b) = app
-                .attempt_mut()
-                .and_then(|a| a.stack.as_mut())
-                .and_then(|s| s.blocks.get_mut(sel))
-            {
-                b.wrung = !b.wrung;
-                detail = format!(
-                    "{} {}",
-                    b.size.show(unit),
-                    if b.wrung { "wrung" } else { "taken off again" }
-                );
-                if b.wrung {
-                    app.ui.stack_sel = (sel + 1).min(n - 1);
-                }
-            }
-            unbuild(app);
-            record(app, EventKind::BlockWrung, detail);
-            vec![Effect::Save]
-        }
+        Input::Act(Action::Tick) if n > 0 => tick(app, n),
         Input::Act(Action::Swap) if n > 0 => {
             if !stack_changeable(app) {
                 return Vec::new();
             }
             let sel = app.ui.stack_sel.min(n - 1);
-            let planned = app
+            let (planned, whose) = app
                 .attempt()
-                .and_then(|a| a.stack.as_ref())
-                .and_then(|s| s.blocks.get(sel))
-                .map(|b| b.size.show(app.unit()))
+                .and_then(|a| {
+                    let (w, i) = locate(a, sel)?;
+                    let s = parts(a).into_iter().find(|(x, _)| *x == w)?.1;
+                    let whose = if parts(a).len() > 1 {
+                        format!(" ({})", part_name(a, w).to_lowercase())
+                    } else {
+                        String::new()
+                    };
+                    Some((s.blocks.get(i)?.size.show(app.unit()), whose))
+                })
                 .unwrap_or_default();
             app.prompt = Some(Prompt {
                 kind: PromptKind::Swap(sel),
-                title: format!("Swap the {planned} block"),
+                title: format!("Swap the {planned} block{whose}"),
                 hint: "type the size really wrung in its place, e.g. 0.1350, then Enter".into(),
                 field: Some(Field::new(20)),
                 error: None,
@@ -239,40 +470,8 @@ pub fn stack_key(app: &mut App, input: Input) -> Vec<Effect> {
             });
             Vec::new()
         }
-        Input::Act(Action::Protectors) => {
-            if !stack_changeable(app) {
-                return Vec::new();
-            }
-            let Some(set) = set_of(app).cloned() else {
-                return Vec::new();
-            };
-            if set.snap.protector.is_none() {
-                app.say(
-                    Level::Info,
-                    format!("the set {} has no protector blocks", set.snap.id),
-                );
-                return Vec::new();
-            }
-            let any_wrung = app
-                .attempt()
-                .and_then(|a| a.stack.as_ref())
-                .is_some_and(|s| s.blocks.iter().any(|b| b.wrung));
-            if any_wrung {
-                app.say(
-                    Level::Warn,
-                    "blocks are already wrung; take them off (Space) before changing the protectors",
-                );
-                return Vec::new();
-            }
-            let on = app
-                .attempt()
-                .and_then(|a| a.stack.as_ref())
-                .is_some_and(|s| s.blocks.iter().any(|b| b.protector));
-            if let Some(a) = app.attempt_mut() {
-                a.stack = None;
-            }
-            solve_request(app, !on)
-        }
+        Input::Act(Action::Protectors) => protectors(app),
+        Input::Act(Action::Remedies) => remedy::reopen(app),
         _ => {
             let mut sel = app.ui.stack_sel;
             move_sel(&mut sel, n, input);
@@ -282,24 +481,123 @@ pub fn stack_key(app: &mut App, input: Input) -> Vec<Effect> {
     }
 }
 
+fn tick(app: &mut App, n: usize) -> Vec<Effect> {
+    if !stack_changeable(app) {
+        return Vec::new();
+    }
+    let sel = app.ui.stack_sel.min(n - 1);
+    let unit = app.unit();
+    let Some((w, i)) = app.attempt().and_then(|a| locate(a, sel)) else {
+        return Vec::new();
+    };
+    let whose = app
+        .attempt()
+        .filter(|a| parts(a).len() > 1)
+        .map(|a| format!("{}: ", part_name(a, w).to_lowercase()))
+        .unwrap_or_default();
+    let mut detail = String::new();
+    if let Some(b) = app
+        .attempt_mut()
+        .and_then(|a| stack_mut(a, w))
+        .and_then(|s| s.blocks.get_mut(i))
+    {
+        b.wrung = !b.wrung;
+        detail = format!(
+            "{whose}{} {}",
+            b.size.show(unit),
+            if b.wrung { "wrung" } else { "taken off again" }
+        );
+        if b.wrung {
+            app.ui.stack_sel = (sel + 1).min(n - 1);
+        }
+    }
+    unbuild(app);
+    record(app, EventKind::BlockWrung, detail);
+    vec![Effect::Save]
+}
+
+fn protectors(app: &mut App) -> Vec<Effect> {
+    if !stack_changeable(app) {
+        return Vec::new();
+    }
+    let Some(set) = set_of(app).cloned() else {
+        return Vec::new();
+    };
+    if set.snap.protector.is_none() {
+        app.say(
+            Level::Info,
+            format!("the set {} has no protector blocks", set.snap.id),
+        );
+        return Vec::new();
+    }
+    if app.attempt().is_some_and(|a| parts(a).len() > 1) {
+        app.say(
+            Level::Info,
+            "two stacks from one set: the protector blocks stay off (a set has one pair)",
+        );
+        return Vec::new();
+    }
+    if app.attempt().is_some_and(any_wrung) {
+        app.say(
+            Level::Warn,
+            "blocks are already wrung; take them off (Space) before changing the protectors",
+        );
+        return Vec::new();
+    }
+    let on = app
+        .attempt()
+        .and_then(|a| a.stack.as_ref())
+        .is_some_and(|s| s.blocks.iter().any(|b| b.protector));
+    if let Some(a) = app.attempt_mut() {
+        a.stack = None;
+    }
+    solve_request(app, !on)
+}
+
+fn built_words(app: &App, a: &Attempt) -> String {
+    let unit = app.unit();
+    let h = |s: &Stack| s.height.show(unit);
+    match (&a.stack, &a.stack_b, &a.stack_pivot) {
+        (Some(n), Some(o), _) => format!(
+            "near plate {} gives {}, other plate {} gives {}",
+            h(n),
+            n.achieved.dms(1),
+            h(o),
+            o.achieved.dms(1)
+        ),
+        (Some(r), None, Some(p)) => format!(
+            "two stacks: raised {}, pivot {}, difference {} gives {}",
+            h(r),
+            h(p),
+            (r.height - p.height).show(unit),
+            r.achieved.dms(1)
+        ),
+        (Some(s), _, _) => format!("stack {} gives {}", h(s), s.achieved.dms(1)),
+        _ => String::new(),
+    }
+}
+
 fn confirm_stack(app: &mut App) -> Vec<Effect> {
     let Some((feature, _)) = app.flow() else {
         return Vec::new();
     };
-    let Some(stack) = app.attempt().and_then(|a| a.stack.clone()) else {
+    let Some(a) = app.attempt().cloned().filter(|a| a.stack.is_some()) else {
         app.say(
             Level::Warn,
             "there is no stack yet; choose another block set or fixture (Esc) if it cannot be made",
         );
         return Vec::new();
     };
-    if stack.built.is_some() {
+    if parts(&a).iter().all(|(_, s)| s.built.is_some()) {
         return enter_step(app, feature, Step::Safety);
     }
     if refuse_read_only(app) {
         return Vec::new();
     }
-    let left = stack.blocks.iter().filter(|b| !b.wrung).count();
+    let left: usize = parts(&a)
+        .iter()
+        .map(|(_, s)| s.blocks.iter().filter(|b| !b.wrung).count())
+        .sum();
     if left > 0 {
         app.say(
             Level::Warn,
@@ -311,23 +609,18 @@ fn confirm_stack(app: &mut App) -> Vec<Effect> {
         return Vec::new();
     }
     let by = app.operator.clone();
-    let unit = app.unit();
-    if let Some(s) = app.attempt_mut().and_then(|a| a.stack.as_mut()) {
-        s.built = Some(Mark {
-            by,
-            at: Stamp::now(),
-        });
+    let at = Stamp::now();
+    if let Some(a) = app.attempt_mut() {
+        for s in [&mut a.stack, &mut a.stack_b, &mut a.stack_pivot]
+            .into_iter()
+            .flatten()
+        {
+            s.built = Some(Mark { by: by.clone(), at });
+        }
     }
     reach(app, Step::Safety);
-    record(
-        app,
-        EventKind::StackBuilt,
-        format!(
-            "{} gives {}",
-            stack.height.show(unit),
-            stack.achieved.dms(1)
-        ),
-    );
+    let words = built_words(app, &a);
+    record(app, EventKind::StackBuilt, words);
     let mut e = vec![Effect::Save];
     e.extend(enter_step(app, feature, Step::Safety));
     e
@@ -337,13 +630,12 @@ pub fn answer_swap(app: &mut App, pos: usize, text: String) -> Result<Vec<Effect
     let set = set_of(app).cloned().ok_or("choose the block set first")?;
     let unit = set.snap.unit;
     let used = Length::parse_positive(&text, unit).map_err(|e| e.to_string())?;
-    let stack = app
-        .attempt()
-        .and_then(|a| a.stack.clone())
-        .ok_or("there is no stack to change")?;
-    let planned = stack
-        .blocks
-        .get(pos)
+    let a = app.attempt().cloned().ok_or("there is no stack to change")?;
+    let (w, i) = locate(&a, pos).ok_or("no such block in the stack")?;
+    let planned = parts(&a)
+        .into_iter()
+        .find(|(x, _)| *x == w)
+        .and_then(|(_, s)| s.blocks.get(i))
         .ok_or("no such block in the stack")?
         .size;
     if used == planned {
@@ -352,11 +644,11 @@ pub fn answer_swap(app: &mut App, pos: usize, text: String) -> Result<Vec<Effect
             used.show(unit)
         ));
     }
-    let others = stack
-        .blocks
+    // both stacks come from the one set: a block in either is not free
+    let others = parts(&a)
         .iter()
-        .enumerate()
-        .filter(|(i, b)| *i != pos && !b.protector && b.size == used)
+        .flat_map(|(x, s)| s.blocks.iter().enumerate().map(move |(k, b)| (*x, k, b)))
+        .filter(|(x, k, b)| !(*x == w && *k == i) && !b.protector && b.size == used)
         .count();
     if !set.has(used, others + 1) {
         return Err(format!(
@@ -365,16 +657,12 @@ pub fn answer_swap(app: &mut App, pos: usize, text: String) -> Result<Vec<Effect
             used.show(unit)
         ));
     }
-    let mut blocks = stack.blocks.clone();
-    blocks[pos].size = used;
-    blocks[pos].wrung = true;
-    let height: Length = blocks.iter().map(|b| b.size).sum();
-    let achieved = achieved_for(app, height)?;
     let by = app.operator.clone();
-    if let Some(s) = app.attempt_mut().and_then(|a| a.stack.as_mut()) {
-        s.blocks = blocks;
-        s.height = height;
-        s.achieved = achieved;
+    if let Some(s) = app.attempt_mut().and_then(|a| stack_mut(a, w)) {
+        if let Some(b) = s.blocks.get_mut(i) {
+            b.size = used;
+            b.wrung = true;
+        }
         s.swaps.push(Swap {
             planned,
             used,
@@ -383,24 +671,39 @@ pub fn answer_swap(app: &mut App, pos: usize, text: String) -> Result<Vec<Effect
             at: Stamp::now(),
         });
     }
+    if let Err(e) = refresh_angles(app) {
+        // put the planned block back: what was typed cannot be set on this fixture
+        if let Some(s) = app.attempt_mut().and_then(|a| stack_mut(a, w)) {
+            if let Some(b) = s.blocks.get_mut(i) {
+                b.size = planned;
+            }
+            s.swaps.pop();
+        }
+        let _ = refresh_angles(app);
+        return Err(e);
+    }
     unbuild(app);
+    let Some(now) = app.attempt().cloned() else {
+        return Ok(Vec::new());
+    };
+    let whose = if parts(&now).len() > 1 {
+        format!("{}: ", part_name(&now, w).to_lowercase())
+    } else {
+        String::new()
+    };
+    let words = built_words(app, &now);
     record(
         app,
         EventKind::BlockSwapped,
         format!(
-            "{} in place of {}: stack {} gives {}",
+            "{whose}{} in place of {}: {words}",
             used.show(unit),
             planned.show(unit),
-            height.show(unit),
-            achieved.dms(1)
         ),
     );
     app.say(
         Level::Done,
-        format!(
-            "swap recorded: the angle is now worked out from {}",
-            height.show(unit)
-        ),
+        format!("swap recorded: the angle is now worked out from what was built ({words})"),
     );
     Ok(vec![Effect::Save])
 }

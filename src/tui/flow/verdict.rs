@@ -137,11 +137,23 @@ fn new_attempt(app: &mut App) -> Vec<Effect> {
         prev.block_set.as_ref().map_or("?", |c| c.id.as_str()),
         prev.number
     );
-    let correction = prev
-        .judgement
-        .and_then(|j| j.correction)
-        .map(|c| format!("corrected stack {}", c.height.show(app.doc.job.unit)))
-        .unwrap_or_default();
+    let unit = app.doc.job.unit;
+    let correction = match prev.judgement.as_ref() {
+        Some(j) => match (&j.correction, j.view_b.as_ref().and_then(|v| v.correction.as_ref())) {
+            (Some(n), Some(o)) => format!(
+                "corrected stacks: near plate {}, other plate {}",
+                n.height.show(unit),
+                o.height.show(unit)
+            ),
+            (Some(c), None) if prev.stack_pivot.is_some() => format!(
+                "corrected difference of the two stacks {}",
+                c.height.show(unit)
+            ),
+            (Some(c), None) => format!("corrected stack {}", c.height.show(unit)),
+            _ => String::new(),
+        },
+        None => String::new(),
+    };
     app.doc.log_at(
         at,
         &by,
@@ -228,6 +240,7 @@ fn sign(app: &mut App) -> Vec<Effect> {
     if let Some(a) = app.attempt_mut() {
         a.step = Step::Done;
     }
+    app.worked = true;
     app.ui.sign.clear();
     let mut e = vec![Effect::Save];
     let (done, total) = app.doc.progress();

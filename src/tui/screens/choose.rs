@@ -69,9 +69,14 @@ pub fn draw_fixtures(f: &mut Frame, area: Rect, app: &App) {
             cell(&state, wst, sstyle),
         ]));
     }
+    let what = match app.feature().map(|f| f.kind) {
+        Some(crate::traveller::FeatureKind::Taper) => "the half angle ",
+        Some(crate::traveller::FeatureKind::Compound) => "the near plate ",
+        _ => "",
+    };
     let title = match setting(app) {
         Some(a) => format!(
-            "Fixtures for {} (stack rounded to {})",
+            "Fixtures for {what}{} (stack rounded to {})",
             a.dms(0),
             height_step(app).show_fine(unit)
         ),
@@ -114,8 +119,17 @@ pub fn draw_fixtures(f: &mut Frame, area: Rect, app: &App) {
         if let Some(w) = &o.why_not {
             d.push(Line::styled(format!("cannot be used: {w}"), t.bad()));
         }
+        let stack = match &app.ui.rank_set {
+            Some((id, grade, true)) => format!("a stack of {id}'s grade ({grade})"),
+            Some((id, grade, false)) => {
+                format!("no stack term ({id}'s grade {grade} has no limits in tiltbook's table)")
+            }
+            None => "no stack term (the shop has no block set)".into(),
+        };
         d.push(Line::styled(
-            "Error: what rounding the stack leaves; U est.: centre distance and a grade-0 stack (k = 2)",
+            format!(
+                "Error: what rounding the stack leaves; U est.: centre distance and {stack} (k = 2)"
+            ),
             t.dim(),
         ));
     } else {

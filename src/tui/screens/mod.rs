@@ -5,11 +5,15 @@ pub mod notice;
 pub mod overview;
 pub mod prompt;
 pub mod readings;
+pub mod remedy;
 pub mod review;
+pub mod review_attempt;
 pub mod review_feature;
 pub mod setup;
 pub mod stack;
+pub mod stack_info;
 pub mod verdict;
+pub mod verdict_views;
 
 use ratatui::text::Span;
 
@@ -27,8 +31,12 @@ pub fn fit(text: &str, w: usize) -> String {
     }
 }
 
-/// A span of fitted text.
+/// A span of fitted text for a column: cut text keeps a space after its ellipsis, so the next
+/// column never runs into it.
 pub fn cell(text: &str, w: usize, style: ratatui::style::Style) -> Span<'static> {
+    if text.chars().count() > w && w >= 2 {
+        return Span::styled(format!("{} ", fit(text, w - 1)), style);
+    }
     Span::styled(fit(text, w), style)
 }
 
@@ -44,5 +52,13 @@ mod tests {
         assert_eq!(super::fit("abc", 5), "abc  ");
         assert_eq!(super::fit("abcdef", 4), "abc…");
         assert_eq!(super::fit("abc", 0), "");
+    }
+
+    #[test]
+    fn a_cut_cell_keeps_a_gap() {
+        let s = ratatui::style::Style::default();
+        assert_eq!(super::cell("dovetail flank", 10, s).content, "dovetail… ");
+        assert_eq!(super::cell("abc", 5, s).content, "abc  ");
+        assert_eq!(super::cell("abcde", 5, s).content, "abcde");
     }
 }

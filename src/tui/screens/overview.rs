@@ -3,7 +3,7 @@
 
 use super::super::app::{App, step_name};
 use super::super::chrome::row_mark;
-use super::super::view::{boxed, nominal_text};
+use super::super::view::{boxed, nominal_parts, nominal_text};
 use super::cell;
 use crate::traveller::{Feature, FeatureState, Verdict};
 use ratatui::Frame;
@@ -86,23 +86,46 @@ pub fn draw(f: &mut Frame, area: Rect, app: &App) {
             .gauge_style(t.good()),
         gauge,
     );
-    // columns: marker, id, name, state, nominal, tolerance, verdict
+    // columns: marker, id, name, state, nominal, tolerance, verdict; the nominal column is as
+    // wide as the widest nominal, and a long one (a compound angle's true slope, a taper's
+    // included angle) takes a second line when the name would be squeezed
+    // every column is as wide as its widest entry (or its heading) and one blank after it
     let w = table.width.saturating_sub(2) as usize;
-    let (wid, wst, wnom, wtol, wv) = (5, 16, 12, 10, 10);
-    let wname = w.saturating_sub(2 + wid + wst + wnom + wtol + wv).max(8);
+    let widest = |f: &dyn Fn(&Feature) -> usize| app.doc.features.iter().map(f).max().unwrap_or(0);
+    let wid = widest(&|x| x.id.chars().count()).max(2) + 2;
+    let wst = widest(&|x| state_text(x).chars().count()).max(5) + 1;
+    // a narrow screen says "Tol." and gives the name the room
+    let tol_head = if w < 100 { "Tol." } else { "Tolerance" };
+    let wtol = widest(&|x| x.tolerance.to_string().chars().count()).max(tol_head.len()) + 1;
+    let wv = widest(&|x| verdict_text(x).chars().count()).max(7) + 1;
+    let fixed = 2 + wid + wst + wtol + wv;
+    let full = widest(&|x| nominal_text(x).chars().count()) + 1;
+    let two_lines = w.saturating_sub(fixed + full.max(12)) < 24;
+    let wnom = if two_lines {
+        widest(&|x| {
+            let (a, b) = nominal_parts(x);
+            a.chars()
+                .count()
+                .max(b.map_or(0, |b| b.chars().count()))
+        }) + 1
+    } else {
+        full
+    }
+    .clamp(12, 42);
+    let wname = w.saturating_sub(fixed + wnom).max(8);
     let mut lines = vec![Line::from(vec![
         cell("  ", 2, t.dim()),
         cell("Id", wid, t.dim()),
         cell("Feature", wname, t.dim()),
         cell("State", wst, t.dim()),
         cell("Nominal", wnom, t.dim()),
-        cell("Tolerance", wtol, t.dim()),
+        cell(tol_head, wtol, t.dim()),
         cell("Verdict", wv, t.dim()),
     ])];
-    let rows = table.height.saturating_sub(3) as usize;
     let sel = app.ui.overview_sel;
-    let first = sel.saturating_sub(rows.saturating_sub(1));
-    for (i, feat) in app.doc.features.iter().enumerate().skip(first).take(rows) {
+    // every line with the feature it belongs to
+    let mut all: Vec<(usize, Line)> = Vec::new();
+    for (i, feat) in app.doc.features.iter().enumerate() {
         let (mark, style) = row_mark(i == sel, t);
         let v = verdict_text(feat);
         let vstyle = if i == sel {
@@ -116,16 +139,39 @@ pub fn draw(f: &mut Frame, area: Rect, app: &App) {
         } else {
             style
         };
-        lines.push(Line::from(vec![
-            cell(mark, 2, style),
-            cell(&feat.id, wid, style),
-            cell(&feat.name, wname, style),
-            cell(&state_text(feat), wst, style),
-            cell(&nominal_text(feat), wnom, style),
-            cell(&feat.tolerance.to_string(), wtol, style),
-            cell(&v, wv, vstyle),
-        ]));
+        let (nom, more) = if two_lines {
+            nominal_parts(feat)
+        } else {
+            (nominal_text(feat), None)
+        };
+        all.push((
+            i,
+            Line::from(vec![
+                cell(mark, 2, style),
+                cell(&feat.id, wid, style),
+                cell(&feat.name, wname - 1, style),
+                cell(" ", 1, style),
+                cell(&state_text(feat), wst, style),
+                cell(&nom, wnom, style),
+                cell(&feat.tolerance.to_string(), wtol, style),
+                cell(&v, wv, vstyle),
+            ]),
+        ));
+        if let Some(more) = more {
+            all.push((
+                i,
+                Line::from(vec![
+                    cell("", 2 + wid + wname + wst, style),
+                    cell(&more, wnom, style),
+                    cell("", wtol + wv, style),
+                ]),
+            ));
+        }
     }
+    let rows = table.height.saturating_sub(3) as usize;
+    let last = all.iter().rposition(|(i, _)| *i == sel).unwrap_or(0);
+    let first = (last + 1).saturating_sub(rows);
+    lines.extend(all.into_iter().skip(first).take(rows).map(|(_, l)| l));
     f.render_widget(Paragraph::new(lines).block(boxed("Features", t)), table);
 }
 

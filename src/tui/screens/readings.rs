@@ -2,7 +2,7 @@
 //! command line and checked as typed; the chart of points and fitted line beside them.
 
 use super::super::app::{App, RField};
-use super::super::flow::readings::{check_field, count, fields_for};
+use super::super::flow::readings::{check_field, count, current_sweep, fields_for, view_letter};
 use super::super::judge::fit_so_far;
 use super::super::view::boxed;
 use super::super::widgets::sweep_chart;
@@ -14,7 +14,16 @@ use ratatui::text::{Line, Span};
 use ratatui::widgets::{Paragraph, Wrap};
 
 fn sweep(app: &App) -> Option<&Sweep> {
-    app.attempt().and_then(|a| a.sweep.as_ref())
+    current_sweep(app)
+}
+
+/// The title of the form: which view is swept, for a compound angle.
+fn view_words(app: &App) -> String {
+    match view_letter(app) {
+        Some(v) if app.ui.readings.other_view => format!("Readings of view {v} (other plate)"),
+        Some(v) => format!("Readings of view {v} (near plate)"),
+        None => "Enter the readings".into(),
+    }
 }
 
 fn label(r: RField) -> &'static str {
@@ -91,32 +100,36 @@ pub fn draw(f: &mut Frame, area: Rect, app: &App) {
     }
     let n = s.map_or(0, count);
     let plan = s.and_then(|s| s.points);
-    let fit_text = match s.and_then(fit_so_far) {
-        Some(fit) => format!(
-            " · residual {:+.1}\" · straightness {}",
-            fit.residual.arcsec(),
-            fit.straightness.show_fine(unit)
-        ),
-        None => String::new(),
-    };
+    let view = view_letter(app).map_or(String::new(), |v| format!(", view {v}"));
     let title = match (mode, plan) {
-        (SweepMode::Spaced, Some(p)) => format!("Readings {n} of {p}{fit_text}"),
-        _ => format!("Readings ({n}){fit_text}"),
+        (SweepMode::Spaced, Some(p)) => format!("Readings {n} of {p}{view}"),
+        _ => format!("Readings ({n}){view}"),
     };
     f.render_widget(
         Paragraph::new(lines)
             .wrap(Wrap { trim: false })
-            .block(boxed("Enter the readings", t)),
+            .block(boxed(&view_words(app), t)),
         form,
     );
 
-    let mut rows = vec![Line::styled(
+    let mut rows = Vec::new();
+    if let Some(fit) = s.and_then(fit_so_far) {
+        rows.push(Line::styled(
+            format!(
+                "residual {:+.1}\"  straightness {}",
+                fit.residual.arcsec(),
+                fit.straightness.show_fine(unit)
+            ),
+            t.title(),
+        ));
+    }
+    rows.push(Line::styled(
         format!("{:>3}  {:>12}  {:>13}", "#", "at", "reading"),
         t.dim(),
-    )];
+    ));
     if let Some(s) = s {
         let pts = s.points_xy();
-        let show = list.height.saturating_sub(3) as usize;
+        let show = (list.height.saturating_sub(2) as usize).saturating_sub(rows.len());
         let start = pts.len().saturating_sub(show);
         let positions_known = !pts.is_empty() || s.readings.is_empty();
         for (i, (x, r)) in pts.iter().enumerate().skip(start) {
@@ -145,7 +158,12 @@ pub fn draw(f: &mut Frame, area: Rect, app: &App) {
     } else {
         "Readings ● (the line appears from two)"
     };
-    sweep_chart::draw(f, right, s, unit, boxed(chart_title, t), t);
+    let chart_title = match (view_letter(app), s.and_then(fit_so_far)) {
+        (Some(v), Some(_)) => format!("View {v} ● and fitted line"),
+        (Some(v), None) => format!("View {v} ● (line from two)"),
+        (None, _) => chart_title.to_string(),
+    };
+    sweep_chart::draw(f, right, s, unit, boxed(&chart_title, t), t);
 }
 
 pub fn next(app: &App) -> String {
@@ -165,6 +183,9 @@ pub fn next(app: &App) -> String {
                     at.show(app.unit()),
                     n + 1
                 )
+            }
+            _ if view_letter(app).is_some() && !app.ui.readings.other_view => {
+                "all readings in for this view: press Enter for the other view's readings".into()
             }
             _ => "all readings in: press Enter for the verdict".into(),
         },

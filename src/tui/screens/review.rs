@@ -115,8 +115,7 @@ pub fn draw(f: &mut Frame, area: Rect, app: &App) {
         lines.push(Line::from(vec![
             cell(mark, 2, style),
             cell(&feat.id, wid, style),
-            cell(&feat.name, wname - 1, style),
-            cell(" ", 1, style),
+            cell(&feat.name, wname, style),
             cell(&review_state(app, feat), wst, style),
             cell(&attempts_text(feat), wat, style),
             cell(&tags(&fl), wfl, fstyle),
@@ -166,17 +165,28 @@ pub fn draw(f: &mut Frame, area: Rect, app: &App) {
     };
     let returns = doc.returns.len();
     let notes = doc.handovers.len();
+    // notes nobody has read stay in the lead's view, even on a finished job
+    let unread: Vec<&str> = doc
+        .handovers
+        .iter()
+        .filter(|h| h.read_by.is_empty())
+        .map(|h| h.text.as_str())
+        .collect();
+    let unread_text = match unread.last() {
+        Some(text) => format!(" ({} not read by anyone: \"{text}\")", unread.len()),
+        None => String::new(),
+    };
     f.render_widget(
         Paragraph::new(vec![
             Line::raw(job_line),
             Line::styled(
                 format!(
-                    "{returns} return{} · {notes} handover note{} · {} events in the log",
+                    "{returns} return{} · {} events in the log · {notes} handover note{}{unread_text}",
                     if returns == 1 { "" } else { "s" },
+                    doc.events.len(),
                     if notes == 1 { "" } else { "s" },
-                    doc.events.len()
                 ),
-                t.dim(),
+                if unread.is_empty() { t.dim() } else { t.warn() },
             ),
         ]),
         job,

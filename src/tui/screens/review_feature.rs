@@ -6,13 +6,12 @@ use super::super::app::App;
 use super::super::chrome::frame5;
 use super::super::flags::{review_flags, standing};
 use super::super::theme::Theme;
-use super::super::view::{boxed, nominal_text};
+use super::super::view::{boxed, nominal_within};
 use super::super::widgets::sweep_chart;
-use super::arcsec;
 use super::review::review_state;
+use super::review_attempt::attempt_section;
 use crate::traveller::digest::withdrawn_by;
-use crate::traveller::{Attempt, Feature, Role, Scope, Stack, SweepMode, Traveller, Verdict};
-use crate::units::{Length, Unit};
+use crate::traveller::{Feature, FeatureKind, Role, Scope, Traveller};
 use ratatui::Frame;
 use ratatui::layout::{Constraint, Layout, Rect};
 use ratatui::style::Style;
@@ -93,15 +92,15 @@ fn page_in(app: &App, index: usize, body: Rect) -> Page {
     }
 }
 
-struct Builder {
-    lines: Vec<Line<'static>>,
-    width: usize,
-    theme: Theme,
+pub(super) struct Builder {
+    pub(super) lines: Vec<Line<'static>>,
+    pub(super) width: usize,
+    pub(super) theme: Theme,
 }
 
 impl Builder {
     /// A labelled row, wrapped under its text.
-    fn row(&mut self, label: &str, text: &str, style: Style) {
+    pub(super) fn row(&mut self, label: &str, text: &str, style: Style) {
         let room = self.width.saturating_sub(LABEL).max(8);
         for (k, part) in wrap(text, room).into_iter().enumerate() {
             let l = if k == 0 { label } else { "" };
@@ -111,11 +110,11 @@ impl Builder {
             ]));
         }
     }
-    fn text(&mut self, label: &str, text: &str) {
+    pub(super) fn text(&mut self, label: &str, text: &str) {
         let s = self.theme.text();
         self.row(label, text, s);
     }
-    fn heading(&mut self, text: &str, selected: bool) {
+    pub(super) fn heading(&mut self, text: &str, selected: bool) {
         let style = if selected {
             self.theme.selected()
         } else {
@@ -215,233 +214,39 @@ fn head_section(b: &mut Builder, t: &Traveller, f: &Feature) {
     if !f.description.is_empty() {
         b.text("About", &f.description);
     }
-}
-
-fn nums(blocks: impl Iterator<Item = Length>, unit: Unit) -> String {
-    blocks
-        .map(|l| l.number(unit, unit.places()))
-        .collect::<Vec<_>>()
-        .join(" + ")
-}
-
-fn stack_rows(b: &mut Builder, label: &str, s: &Stack, unit: Unit) {
-    let protectors = s.blocks.iter().filter(|x| x.protector).count();
-    let prot = if protectors > 0 {
-        format!(" ({protectors} protector blocks)")
-    } else {
-        String::new()
-    };
-    b.text(
-        label,
-        &format!(
-            "{} = {}{prot}",
-            nums(s.blocks.iter().map(|x| x.size), unit),
-            s.height.show(unit)
-        ),
-    );
-    let built = s
-        .built
-        .as_ref()
-        .map_or("not confirmed built".to_string(), |m| {
-            format!("built {} {}", m.by, m.at.short())
-        });
-    b.text("", &format!("achieved {}, {built}", s.achieved.dms(1)));
-    for w in &s.swaps {
-        let why = if w.reason.is_empty() {
-            String::new()
-        } else {
-            format!(": {}", w.reason)
-        };
-        let warn = b.theme.warn();
-        b.row(
-            "",
-            &format!(
-                "swapped by hand {} for {}{why} ({} {})",
-                w.used.show(unit),
-                w.planned.show(unit),
-                w.by,
-                w.at.short()
-            ),
-            warn,
-        );
-    }
-}
-
-fn attempt_section(b: &mut Builder, t: &Traveller, f: &Feature, a: &Attempt, selected: bool) {
-    let unit = t.job.unit;
-    let verdict = a
-        .judgement
-        .as_ref()
-        .map_or("no verdict", |j| j.final_verdict().label());
-    let marker = if selected { "▶ " } else { "" };
-    b.heading(
-        &format!(
-            "{marker}Attempt {} of {} · {verdict}",
-            a.number,
-            f.attempts.len()
-        ),
-        selected,
-    );
-    if let Some(m) = &a.started {
-        b.text("Started", &format!("{} {}", m.by, m.at.short()));
-    }
-    match &a.fixture {
-        Some(c) => {
-            let snap = t.fixture(&c.id).map_or(String::new(), |x| {
-                let due = x.due.map_or(String::new(), |d| format!(", due {d}"));
-                format!(", C {}{due}", x.centre.show_fine(unit))
-            });
-            b.text("Fixture", &format!("{}{snap} ({})", c.id, c.by));
-            if !c.reason.is_empty() {
-                let warn = b.theme.warn();
-                b.row("", &format!("reason: {}", c.reason), warn);
+    match f.kind {
+        FeatureKind::Compound => {
+            if let Some(c) = &f.compound
+                && let Ok(set) = c.setting()
+            {
+                let (ln, lo) = c.letters();
+                b.text(
+                    "Angle",
+                    &format!(
+                        "compound {}; near plate (view {ln}) set to {}, other plate to {} for view {lo}; passes only when both views pass",
+                        c.words(),
+                        set.near.dms(0),
+                        set.other.dms(1)
+                    ),
+                );
             }
         }
-        None => b.text("Fixture", "not chosen"),
-    }
-    if let Some(c) = &a.block_set {
-        let snap = t.block_set(&c.id).map_or(String::new(), |x| {
-            let due = x.due.map_or(String::new(), |d| format!(", due {d}"));
-            format!(", grade {}{due}", x.grade)
-        });
-        b.text("Set", &format!("{}{snap} ({})", c.id, c.by));
-        if !c.reason.is_empty() {
-            let warn = b.theme.warn();
-            b.row("", &format!("reason: {}", c.reason), warn);
-        }
-    }
-    if let Some(s) = &a.stack {
-        stack_rows(b, "Stack", s, unit);
-    }
-    if let Some(s) = &a.stack_b {
-        stack_rows(b, "Stack B", s, unit);
-    }
-    if let Some(m) = &a.safety {
-        b.text(
-            "Safety",
-            &format!("cautions confirmed, {} {}", m.by, m.at.short()),
-        );
-    }
-    if let Some(s) = &a.settle {
-        let what = if s.done {
-            format!("{} min", s.minutes.unwrap_or(0))
-        } else if s.reason.is_empty() {
-            "wait skipped".into()
-        } else {
-            format!("wait skipped: {}", s.reason)
-        };
-        b.text("Settle", &format!("{what}, {} {}", s.by, s.at.short()));
-    }
-    if let Some(s) = &a.sweep {
-        let by = s.entered.as_ref().map_or(String::new(), |m| {
-            format!(", last by {} {}", m.by, m.at.short())
-        });
-        let sign = |l: Length| {
-            format!(
-                "{}{}",
-                if l.nm() > 0 { "+" } else { "" },
-                l.number(unit, unit.fine_places())
-            )
-        };
-        match s.mode {
-            SweepMode::Spaced => {
-                let n = s.readings.len();
-                let plan = s.points.map_or("?".to_string(), |p| p.to_string());
-                let over = s.travel.map_or("?".to_string(), |x| x.show(unit));
-                b.text("Readings", &format!("{n} of {plan} over {over}{by}"));
-                let vals: Vec<String> = s.readings.iter().map(|r| sign(*r)).collect();
-                b.text("", &vals.join("  "));
-            }
-            SweepMode::Pairs => {
-                b.text("Readings", &format!("{} pairs{by}", s.pairs.len()));
-                let vals: Vec<String> = s
-                    .pairs
-                    .iter()
-                    .map(|p| {
-                        format!(
-                            "{}: {}",
-                            p.position.number(unit, unit.places()),
-                            sign(p.reading)
-                        )
-                    })
-                    .collect();
-                b.text("", &vals.join("  "));
+        FeatureKind::Taper => {
+            if let Some(tp) = &f.taper
+                && let Ok(h) = tp.half_angle()
+            {
+                b.text(
+                    "Angle",
+                    &format!(
+                        "taper {}: half angle {} (the setting), included {}",
+                        tp.given(),
+                        h.dms(1),
+                        crate::units::Angle::from_deg(2.0 * h.deg()).dms(1)
+                    ),
+                );
             }
         }
-    }
-    if let Some(j) = &a.judgement {
-        b.text(
-            "Fit",
-            &format!(
-                "residual {}, straightness {}",
-                arcsec(j.residual),
-                j.fit.straightness.show_fine(unit)
-            ),
-        );
-        let style = match j.verdict {
-            Verdict::Pass => b.theme.good(),
-            Verdict::Fail => b.theme.bad(),
-            Verdict::Doubt => b.theme.warn(),
-        };
-        b.row(
-            "Verdict",
-            &format!(
-                "{} · deviation {} · U {:.1}\" ({} rule) · tol {} · {} {}",
-                j.verdict.label(),
-                arcsec(j.deviation),
-                j.u.arcsec(),
-                format!("{:?}", j.rule).to_lowercase(),
-                f.tolerance,
-                j.by,
-                j.at.short()
-            ),
-            style,
-        );
-        if let Some(d) = &j.doubt_decision {
-            b.text(
-                "Decided",
-                &format!(
-                    "{}: {} ({} {})",
-                    d.verdict.label(),
-                    d.reason,
-                    d.by,
-                    d.at.short()
-                ),
-            );
-        }
-        if let Some(c) = &j.correction {
-            let dir = if c.delta.nm() >= 0 { "raise" } else { "lower" };
-            b.text(
-                "Change",
-                &format!(
-                    "{dir} the stack by {} to {}",
-                    c.delta.abs().show_fine(unit),
-                    c.height.show(unit)
-                ),
-            );
-        }
-        let wide = b.width >= 70;
-        for (k, l) in j.budget.iter().enumerate() {
-            let note = if wide && !l.note.is_empty() {
-                format!(" ({})", l.note)
-            } else {
-                String::new()
-            };
-            b.text(
-                if k == 0 { "Budget" } else { "" },
-                &format!("{:>6.2}\"  {}{note}", l.u.arcsec(), l.source),
-            );
-        }
-        let title = b.theme.title();
-        b.row(
-            if j.budget.is_empty() { "Budget" } else { "" },
-            &format!("U = 2·u_c = {:.2}\"", j.u.arcsec()),
-            title,
-        );
-    }
-    if !a.note.trim().is_empty() {
-        let warn = b.theme.warn();
-        b.row("Note", a.note.trim(), warn);
+        FeatureKind::Plain => {}
     }
 }
 
@@ -478,18 +283,20 @@ pub fn draw(f: &mut Frame, area: Rect, app: &App, index: usize) {
         tabs.push(Span::raw("none yet"));
     }
     let flags = review_flags(&app.doc, feat).len();
+    let name = format!("{} {}", feat.id, feat.name);
+    let rest = format!(
+        "  tol {}  {}  {} flag{}",
+        feat.tolerance,
+        review_state(app, feat),
+        flags,
+        if flags == 1 { "" } else { "s" }
+    );
+    let room = (head.width as usize).saturating_sub(name.chars().count() + rest.chars().count() + 2);
     f.render_widget(
         Paragraph::new(vec![
             Line::from(vec![
-                Span::styled(format!("{} {}", feat.id, feat.name), t.title()),
-                Span::raw(format!(
-                    "  {}  tol {}  {}  {} flag{}",
-                    nominal_text(feat),
-                    feat.tolerance,
-                    review_state(app, feat),
-                    flags,
-                    if flags == 1 { "" } else { "s" }
-                )),
+                Span::styled(name, t.title()),
+                Span::raw(format!("  {}{rest}", nominal_within(feat, room))),
             ]),
             Line::from(tabs),
         ]),
@@ -518,14 +325,39 @@ pub fn draw(f: &mut Frame, area: Rect, app: &App, index: usize) {
         Some(a) => format!("Readings, attempt {}", a.number),
         None => "Readings".into(),
     };
-    sweep_chart::draw(
-        f,
-        chart,
-        a.and_then(|a| a.sweep.as_ref()),
-        app.unit(),
-        boxed(&title, t),
-        t,
-    );
+    match (a.and_then(|a| a.sweep_b.as_ref()), feat.compound_angles()) {
+        // a compound angle: each view's readings, one chart over the other
+        (Some(second), Some(c)) => {
+            let (ln, lo) = c.letters();
+            let [top, bottom] =
+                Layout::vertical([Constraint::Percentage(50), Constraint::Percentage(50)])
+                    .areas(chart);
+            sweep_chart::draw(
+                f,
+                top,
+                a.and_then(|a| a.sweep.as_ref()),
+                app.unit(),
+                boxed(&format!("{title}, view {ln}"), t),
+                t,
+            );
+            sweep_chart::draw(
+                f,
+                bottom,
+                Some(second),
+                app.unit(),
+                boxed(&format!("view {lo}"), t),
+                t,
+            );
+        }
+        _ => sweep_chart::draw(
+            f,
+            chart,
+            a.and_then(|a| a.sweep.as_ref()),
+            app.unit(),
+            boxed(&title, t),
+            t,
+        ),
+    }
 }
 
 /// The next action on the feature page, in words.

@@ -24,9 +24,11 @@ fn split(area: Rect) -> (Rect, Rect) {
     (a, b)
 }
 
-/// The side view for the attempt: the built stack when there is one.
+/// The side view for the attempt: the built stack when there is one; both plates of a
+/// compound sine plate side by side; a stack under each roll for a small angle.
 pub fn draw_view(f: &mut Frame, area: Rect, app: &App) {
     let t = app.theme;
+    let unit = app.unit();
     let a = app.attempt();
     let fx = a
         .and_then(|a| a.fixture.as_ref())
@@ -38,14 +40,36 @@ pub fn draw_view(f: &mut Frame, area: Rect, app: &App) {
         );
         return;
     };
+    let sizes = |s: &crate::traveller::Stack| s.blocks.iter().map(|b| b.size).collect::<Vec<_>>();
+    if let Some(c) = app.feature().and_then(|x| x.compound_angles()) {
+        let want = c.setting().ok();
+        let near = match a.and_then(|a| a.stack.as_ref()) {
+            Some(s) => (s.achieved, sizes(s)),
+            None => (want.map(|w| w.near).unwrap_or_default(), Vec::new()),
+        };
+        let other = match a.and_then(|a| a.stack_b.as_ref()) {
+            Some(s) => (s.achieved, sizes(s)),
+            None => (want.map(|w| w.other).unwrap_or_default(), Vec::new()),
+        };
+        let (ln, _) = c.letters();
+        let [l, r] =
+            Layout::horizontal([Constraint::Percentage(50), Constraint::Percentage(50)])
+                .areas(area);
+        let scene = SetupScene::new(fx, near.0, &near.1, unit);
+        let lo = c.letters().1;
+        setup_view::draw(f, l, &scene, boxed(&format!("Near plate ({ln})"), t), t);
+        let scene = SetupScene::new(fx, other.0, &other.1, unit);
+        setup_view::draw(f, r, &scene, boxed(&format!("Other plate ({lo})"), t), t);
+        return;
+    }
     let (angle, blocks) = match a.and_then(|a| a.stack.as_ref()) {
-        Some(s) => (
-            s.achieved,
-            s.blocks.iter().map(|b| b.size).collect::<Vec<_>>(),
-        ),
+        Some(s) => (s.achieved, sizes(s)),
         None => (setting(app).unwrap_or_default(), Vec::new()),
     };
-    let scene = SetupScene::new(fx, angle, &blocks, app.unit());
+    let mut scene = SetupScene::new(fx, angle, &blocks, unit);
+    if let Some(p) = a.and_then(|a| a.stack_pivot.as_ref()) {
+        scene = scene.with_pivot(&sizes(p));
+    }
     setup_view::draw(f, area, &scene, boxed("Side view, to scale", t), t);
 }
 

@@ -1,150 +1,50 @@
 //! The stack in wringing order with a tick per block, the total, the achieved angle and its
-//! rounding error, swaps, and advice for steep and small angles.
+//! rounding error, swaps, and advice for steep and small angles. Two stacks (a compound angle's
+//! plates, or one under each roll for a small angle) are listed one after the other; while the
+//! small-angle remedies are offered, the choice takes the screen (see [`super::remedy`]).
 
 use super::super::app::App;
 use super::super::chrome::row_mark;
-use super::super::flow::stack::target_height;
-use super::super::flow::{height_step, setting};
-use super::super::rank::geometry;
+use super::super::flow::stack::{Which, block_count, locate, part_name, parts};
 use super::super::view::boxed;
-use super::arcsec;
-use crate::geometry::plan;
+use super::stack_info::figures;
+use crate::traveller::Attempt;
+use crate::units::Length;
 use ratatui::Frame;
 use ratatui::layout::{Constraint, Layout, Rect};
 use ratatui::text::{Line, Span};
 use ratatui::widgets::{Paragraph, Wrap};
 
+pub use super::stack_info::{advice, aim};
+
 pub fn draw(f: &mut Frame, area: Rect, app: &App) {
+    if app.ui.remedies.as_ref().is_some_and(|r| r.open) {
+        super::remedy::draw(f, area, app);
+        return;
+    }
     let t = app.theme;
-    let unit = app.unit();
     let left_w = if area.width >= 120 { 48 } else { 36 };
     let [left, right] =
         Layout::horizontal([Constraint::Length(left_w), Constraint::Min(30)]).areas(area);
-    let stack = app.attempt().and_then(|a| a.stack.as_ref());
-    let set_worn: Vec<crate::units::Length> = app
-        .attempt()
-        .and_then(|a| a.block_set.as_ref())
-        .and_then(|c| app.shop.set(&c.id))
-        .map(|s| s.worn().to_vec())
-        .unwrap_or_default();
-    let mut lines: Vec<Line> = Vec::new();
-    match stack {
-        Some(s) => {
-            lines.push(Line::styled("   Wrung  #  Block", t.dim()));
-            let rows = left.height.saturating_sub(3) as usize;
-            let first = app.ui.stack_sel.saturating_sub(rows.saturating_sub(1));
-            for (i, b) in s.blocks.iter().enumerate().skip(first).take(rows) {
-                let (mark, style) = row_mark(i == app.ui.stack_sel, t);
-                let tick = if b.wrung { "[✓]" } else { "[ ]" };
-                let note = if b.protector {
-                    " protector"
-                } else if set_worn.contains(&b.size) {
-                    " worn"
-                } else {
-                    ""
-                };
-                lines.push(Line::from(vec![Span::styled(
-                    format!("{mark} {tick}  {:>2}  {}{note}", i + 1, b.size.show(unit)),
-                    style,
-                )]));
-            }
-        }
-        None if app.ui.solving => lines.push(Line::raw("working out the stack…")),
-        None => lines.push(Line::styled("no stack", t.bad())),
-    }
-    f.render_widget(
-        Paragraph::new(lines).block(boxed("Stack, bottom first", t)),
-        left,
-    );
+    let a = app.attempt();
+    let lines = match a.filter(|a| a.stack.is_some()) {
+        Some(a) => block_lines(app, a, left.height.saturating_sub(2) as usize),
+        None if app.ui.solving => vec![Line::raw("working out the stack…")],
+        None => vec![Line::styled("no stack", t.bad())],
+    };
+    let title = if a.is_some_and(|a| parts(a).len() > 1) {
+        "Stacks, bottom first"
+    } else {
+        "Stack, bottom first"
+    };
+    f.render_widget(Paragraph::new(lines).block(boxed(title, t)), left);
 
-    let mut d: Vec<Line> = Vec::new();
-    if let Some(s) = stack {
-        let wrung = s.blocks.iter().filter(|b| b.wrung).count();
-        d.push(Line::from(vec![
-            Span::styled("Height   ", t.dim()),
-            Span::styled(s.height.show(unit), t.title()),
-            Span::raw(format!("  {} blocks, {wrung} wrung", s.blocks.len())),
-        ]));
-        if let Ok(target) = target_height(app)
-            && target != s.height
-        {
-            d.push(Line::from(vec![
-                Span::styled("Planned  ", t.dim()),
-                Span::raw(target.show(unit)),
-            ]));
-        }
-        d.push(Line::from(vec![
-            Span::styled("Angle    ", t.dim()),
-            Span::styled(s.achieved.dms(1), t.title()),
-        ]));
-        match (aim(app), setting(app)) {
-            (Some((aim, n, residual)), _) => {
-                d.push(Line::from(vec![
-                    Span::styled("Aim      ", t.dim()),
-                    Span::raw(aim.dms(1)),
-                    Span::styled("   error ", t.dim()),
-                    Span::raw(arcsec(s.achieved - aim)),
-                ]));
-                d.push(Line::styled(
-                    format!(
-                        "corrected for attempt {n}: its setting less its residual {}",
-                        arcsec(residual)
-                    ),
-                    t.dim(),
-                ));
-            }
-            (None, Some(set)) => {
-                d.push(Line::from(vec![
-                    Span::styled("Setting  ", t.dim()),
-                    Span::raw(set.dms(0)),
-                    Span::styled("   error ", t.dim()),
-                    Span::raw(arcsec(s.achieved - set)),
-                ]));
-            }
-            (None, None) => {}
-        }
-        if s.built.is_some() {
-            d.push(Line::styled("✓ built and confirmed", t.good()));
-        }
-        for w in &s.swaps {
-            d.push(Line::styled(
-                format!("swapped {} for {}", w.planned.show(unit), w.used.show(unit)),
-                t.warn(),
-            ));
-        }
-        if s.blocks
-            .iter()
-            .any(|b| !b.protector && set_worn.contains(&b.size))
-        {
-            d.push(Line::styled(
-                "! a worn block is used: no stack of as many blocks avoids it",
-                t.warn(),
-            ));
-        }
-    }
-    if let Some(a) = app.attempt() {
-        d.push(Line::styled(
-            format!(
-                "fixture {}  set {}",
-                a.fixture.as_ref().map_or("?", |c| c.id.as_str()),
-                a.block_set.as_ref().map_or("?", |c| c.id.as_str())
-            ),
-            t.dim(),
-        ));
-    }
-    d.push(Line::styled(
-        "Clean each face, wring with a sliding twist, bottom block first.",
-        t.dim(),
-    ));
-    if let Some(e) = &app.ui.solve_error {
-        d.push(Line::styled(format!("✗ {e}"), t.bad()));
-    }
-    for w in advice(app) {
-        d.push(Line::styled(format!("! {w}"), t.warn()));
-    }
+    let d = figures(app);
     // on a tall screen, the setup as it will stand, below the figures
+    let info_h = (d.len() as u16 + 2).clamp(12, 16);
     let (info, view) = if right.height >= 24 {
-        let [a, b] = Layout::vertical([Constraint::Length(12), Constraint::Min(10)]).areas(right);
+        let [a, b] =
+            Layout::vertical([Constraint::Length(info_h), Constraint::Min(10)]).areas(right);
         (a, Some(b))
     } else {
         (right, None)
@@ -160,81 +60,113 @@ pub fn draw(f: &mut Frame, area: Rect, app: &App) {
     }
 }
 
-/// For an attempt that follows a judged one on the same fixture: the angle to aim at (that
-/// attempt's setting less its residual), the attempt's number and its residual.
-pub fn aim(app: &App) -> Option<(crate::units::Angle, u32, crate::units::Angle)> {
-    let f = app.feature()?;
-    let a = f.current_attempt()?;
-    let prev = f.attempts.iter().rev().nth(1)?;
-    let same = prev.fixture.as_ref()?.id == a.fixture.as_ref()?.id;
-    let j = prev.judgement.as_ref()?;
-    let built = prev.stack.as_ref()?;
-    same.then(|| (built.achieved - j.residual, prev.number, j.residual))
-}
-
-/// Steep-angle advice (the complement side by side) for this feature's fixture, and what a
-/// compound angle's second plate needs.
-pub fn advice(app: &App) -> Vec<String> {
-    let (Some(a), Some(angle)) = (app.attempt(), setting(app)) else {
-        return Vec::new();
-    };
-    let mut out = Vec::new();
-    if let Some(c) = app.feature().and_then(|f| f.compound.as_ref()) {
-        let (near, far) = c.plate_angles();
-        out.push(format!(
-            "compound angle: this stack sets the near plate to {}; the other plate is set to {} with its own stack from the same set, no block shared. These screens record the near plate only: work out the other with `tiltbook stack {} --fixture {} --set {}` and add a note",
-            near.dms(0),
-            far.dms(0),
-            far.decimal(4),
-            a.fixture.as_ref().map_or("ID", |c| c.id.as_str()),
-            a.block_set.as_ref().map_or("ID", |c| c.id.as_str()),
-        ));
-    }
-    let Some(fx) = a.fixture.as_ref().and_then(|c| app.doc.fixture(&c.id)) else {
-        return Vec::new();
-    };
+/// The blocks of every stack, a heading over each when there are two, scrolled to keep the
+/// selection in `rows`.
+fn block_lines(app: &App, a: &Attempt, rows: usize) -> Vec<Line<'static>> {
+    let t = app.theme;
     let unit = app.unit();
-    match plan(&geometry(fx), angle, height_step(app), fx.max_stack, unit) {
-        Ok(p) => {
-            let mut v = out;
-            v.extend(p.warnings);
-            if let Some(c) = p.complement {
-                v.push(format!(
-                    "complement {}: stack {}, error {} here against {} direct",
-                    c.setting.dms(0),
-                    c.height.show(unit),
-                    arcsec(c.error),
-                    arcsec(p.direct.error)
-                ));
-            }
-            v
+    let set_worn: Vec<Length> = a
+        .block_set
+        .as_ref()
+        .and_then(|c| app.shop.set(&c.id))
+        .map(|s| s.worn().to_vec())
+        .unwrap_or_default();
+    let two = parts(a).len() > 1;
+    // every row with the block index it shows (None for a heading)
+    let mut all: Vec<(Option<usize>, Line<'static>)> = Vec::new();
+    let mut k = 0usize;
+    for (w, s) in parts(a) {
+        if two {
+            let letters = app
+                .feature()
+                .and_then(|f| f.compound_angles())
+                .map(|c| c.letters());
+            let what = match (w, letters) {
+                (Which::Main, Some((l, _))) | (Which::Second, Some((_, l))) => format!(
+                    "{} ({l}) at {}",
+                    part_name(a, w),
+                    s.achieved.dms(0)
+                ),
+                _ => format!("{}: {}", part_name(a, w), s.height.show(unit)),
+            };
+            all.push((None, Line::styled(what, t.title())));
         }
-        Err(e) => {
-            out.push(e.to_string());
-            out
+        for (i, b) in s.blocks.iter().enumerate() {
+            let (mark, style) = row_mark(k == app.ui.stack_sel, t);
+            let tick = if b.wrung { "[✓]" } else { "[ ]" };
+            let note = if b.protector {
+                " protector"
+            } else if set_worn.contains(&b.size) {
+                " worn"
+            } else {
+                ""
+            };
+            all.push((
+                Some(k),
+                Line::from(vec![Span::styled(
+                    format!("{mark} {tick}  {:>2}  {}{note}", i + 1, b.size.show(unit)),
+                    style,
+                )]),
+            ));
+            k += 1;
         }
     }
+    let rows = rows.saturating_sub(1).max(1);
+    let at = all
+        .iter()
+        .position(|(i, _)| *i == Some(app.ui.stack_sel))
+        .unwrap_or(0);
+    let first = at.saturating_sub(rows.saturating_sub(1));
+    let mut lines = vec![Line::styled("   Wrung  #  Block", t.dim())];
+    lines.extend(all.into_iter().skip(first).take(rows).map(|(_, l)| l));
+    lines
 }
 
 /// The next action on the stack screen.
 pub fn next(app: &App) -> String {
+    if let Some(r) = app.ui.remedies.as_ref().filter(|r| r.open) {
+        let _ = r;
+        return "small angle: choose a remedy (↑↓), Enter uses it; the best is chosen already"
+            .into();
+    }
     let unit = app.unit();
-    let Some(s) = app.attempt().and_then(|a| a.stack.as_ref()) else {
+    let Some(a) = app.attempt().filter(|a| a.stack.is_some()) else {
         return if app.ui.solving {
             "working out the stack…".into()
         } else {
             "no stack can be made: press Esc to choose another block set or fixture".into()
         };
     };
-    if s.built.is_some() {
+    if parts(a).iter().all(|(_, s)| s.built.is_some()) {
         return "stack confirmed: press Enter for the safety check".into();
     }
-    match s.blocks.iter().position(|b| !b.wrung) {
-        Some(i) => {
-            let b = &s.blocks[i];
+    let n = block_count(a);
+    let next = (0..n).find(|k| {
+        locate(a, *k).is_some_and(|(w, i)| {
+            parts(a)
+                .iter()
+                .find(|(x, _)| *x == w)
+                .and_then(|(_, s)| s.blocks.get(i))
+                .is_some_and(|b| !b.wrung)
+        })
+    });
+    match next.and_then(|k| locate(a, k)) {
+        Some((w, i)) => {
+            let Some(b) = parts(a)
+                .into_iter()
+                .find(|(x, _)| *x == w)
+                .and_then(|(_, s)| s.blocks.get(i))
+            else {
+                return String::new();
+            };
             let what = if b.protector { " protector" } else { "" };
+            let whose = if parts(a).len() > 1 {
+                format!("{}: ", part_name(a, w).to_lowercase())
+            } else {
+                String::new()
+            };
             format!(
-                "wring block {} ({}{what}), then press Space; s if you used another size",
+                "{whose}wring block {} ({}{what}), then press Space; s if you used another size",
                 i + 1,
                 b.size.show(unit)
             )

@@ -1,6 +1,6 @@
 //! A side view of the setup, drawn to scale on a Canvas: surface plate, the fixture's two rolls
-//! and body at the angle, the stack of blocks under the raised roll, the work against the stop,
-//! and the angle.
+//! and body at the angle, the stack of blocks under the raised roll (and under the pivot roll
+//! when a small angle is set on two stacks), the work against the stop, and the angle.
 
 use super::super::theme::Theme;
 use crate::traveller::FixtureSnapshot;
@@ -23,6 +23,8 @@ pub struct SetupScene {
     pub angle: Angle,
     /// Block heights from the bottom.
     pub blocks: Vec<f64>,
+    /// Blocks under the pivot roll, from the bottom (two stacks for a small angle).
+    pub pivot_blocks: Vec<f64>,
     pub unit: Unit,
     pub label_centre: String,
     pub label_height: String,
@@ -39,10 +41,24 @@ impl SetupScene {
             raised_roll: v(fx.roll_stack),
             angle,
             blocks: blocks.iter().map(|b| v(*b)).collect(),
+            pivot_blocks: Vec::new(),
             unit,
             label_centre: format!("C {}", fx.centre.show(unit)),
             label_height: format!("H {}", total.show(unit)),
         }
+    }
+    /// The same with a stack under the pivot roll too (`pivot`, bottom first).
+    pub fn with_pivot(mut self, pivot: &[Length]) -> SetupScene {
+        let unit = self.unit;
+        let total: Length = pivot.iter().copied().sum();
+        self.pivot_blocks = pivot.iter().map(|b| b.to_f64(unit)).collect();
+        let raised: f64 = self.blocks.iter().sum();
+        self.label_height = format!(
+            "H {} − {}",
+            Length::from_f64(raised, unit).number(unit, unit.places()),
+            total.show(unit)
+        );
+        self
     }
 }
 
@@ -62,8 +78,9 @@ fn shapes(s: &SetupScene) -> Shapes {
     let (u, n) = ((th.cos(), th.sin()), (-th.sin(), th.cos()));
     let rp = s.pivot_roll / 2.0;
     let rr = s.raised_roll / 2.0;
-    let p = (0.0, rp);
-    let r = (c * th.cos(), rp + c * th.sin());
+    let lift: f64 = s.pivot_blocks.iter().sum();
+    let p = (0.0, lift + rp);
+    let r = (c * th.cos(), lift + rp + c * th.sin());
     let e = 0.12 * c; // body beyond the rolls (drawn proportion, not a measured one)
     let t = 0.16 * c; // body thickness
     let at = |o: (f64, f64), along: f64, up: f64| {
@@ -93,6 +110,11 @@ fn shapes(s: &SetupScene) -> Shapes {
     // the stack
     let half = 0.09 * c;
     let mut stack = Vec::new();
+    let mut y = 0.0;
+    for h in &s.pivot_blocks {
+        stack.push((p.0 - half, y, p.0 + half, y + h));
+        y += h;
+    }
     let mut y = 0.0;
     for h in &s.blocks {
         stack.push((r.0 - half, y, r.0 + half, y + h));
@@ -222,6 +244,7 @@ mod tests {
             raised_roll: 0.75,
             angle: Angle::from_deg(30.0),
             blocks: vec![2.0, 0.5],
+            pivot_blocks: Vec::new(),
             unit: Unit::In,
             label_centre: String::new(),
             label_height: String::new(),
@@ -234,5 +257,28 @@ mod tests {
         let per_col = (xb[1] - xb[0]) / 40.0;
         let per_row = (yb[1] - yb[0]) / 10.0;
         assert!((per_row - 2.0 * per_col).abs() < 1e-9);
+    }
+
+    #[test]
+    fn two_stacks_tilt_by_their_difference() {
+        // a stack under each roll: sin θ = (R − P)/C with equal rolls (DOMAIN, small angles);
+        // 0.1436 − 0.1000 = 0.0436 in on 5 in is asin(0.00872) = 0.4996°
+        let theta = Angle::from_rad((0.0436f64 / 5.0).asin());
+        let scene = SetupScene {
+            centre: 5.0,
+            pivot_roll: 0.75,
+            raised_roll: 0.75,
+            angle: theta,
+            blocks: vec![0.1436],
+            pivot_blocks: vec![0.1],
+            unit: Unit::In,
+            label_centre: String::new(),
+            label_height: String::new(),
+        };
+        let sh = shapes(&scene);
+        let (_, py, pr) = sh.rolls[0];
+        let (_, ry, rr) = sh.rolls[1];
+        assert!((py - pr - 0.1).abs() < 1e-9, "the pivot roll sits on its stack");
+        assert!((ry - rr - 0.1436).abs() < 1e-9, "the raised roll sits on its stack");
     }
 }

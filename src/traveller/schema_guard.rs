@@ -1,0 +1,179 @@
+//! Refusing hostile or runaway input before it is read into a job: a file too large to be a
+//! traveller, YAML aliases (`*name`) that expand into far more values than the file holds (the
+//! "billion laughs" kind), and nesting deep enough to threaten the stack.
+
+use super::LoadError;
+use serde::de::{self, DeserializeSeed, Visitor};
+use std::cell::Cell;
+use std::fmt;
+
+/// The largest traveller file read, in bytes (16 MiB). A finished 300-feature job is well under
+/// 2 MiB.
+pub const MAX_BYTES: u64 = 16 * 1024 * 1024;
+
+/// How deeply lists and mappings may nest: the YAML reader refuses deeper input with an error
+/// (it never recurses past this). A traveller is about eight levels deep.
+pub const MAX_DEPTH: usize = 128;
+
+/// How many values aliases may add beyond what the text itself could hold. Hand-written files
+/// may use an anchor (`&name`) and a few aliases; expansion past this is refused.
+const ALIAS_ALLOWANCE: usize = 100_000;
+
+/// A size in bytes as people read it: `52.4 MB` (10^6), `812 kB`, `90 bytes`.
+pub fn describe_size(bytes: u64) -> String {
+    if bytes >= 1_000_000 {
+        format!("{:.1} MB", bytes as f64 / 1e6)
+    } else if bytes >= 1_000 {
+        format!("{} kB", bytes / 1_000)
+    } else {
+        format!("{bytes} bytes")
+    }
+}
+
+/// The message for a file over [`MAX_BYTES`].
+pub(crate) fn too_large(bytes: u64) -> String {
+    format!(
+        "the file is {} ({bytes} bytes), more than the {} ({MAX_BYTES} bytes) a traveller may be; check that this is the right file",
+        describe_size(bytes),
+        describe_size(MAX_BYTES)
+    )
+}
+
+/// Refuse text that is too large, or whose aliases expand beyond what the text could hold.
+pub(super) fn check(text: &str) -> Result<(), LoadError> {
+    let bytes = text.len() as u64;
+    if bytes > MAX_BYTES {
+        return Err(refused(too_large(bytes)));
+    }
+    // no anchor, no alias to expand: a file without `&` cannot blow up
+    if !text.contains('&') {
+        return Ok(());
+    }
+    let budget = text.len() + ALIAS_ALLOWANCE;
+    let count = Cell::new(0usize);
+    let counted = Count {
+        seen: &count,
+        budget,
+    }
+    .deserialize(serde_yaml::Deserializer::from_str(text));
+    if counted.is_err() && count.get() > budget {
+        return Err(refused(format!(
+            "the file's aliases (`*name`) expand to more than {budget} values from {} of text; write the values out instead of repeating an anchor, or check that this is the right file",
+            describe_size(bytes)
+        )));
+    }
+    // any other error is reported, with its place, by the ordinary reading
+    Ok(())
+}
+
+/// A clearer message for the YAML reader's own limits, when one was hit.
+pub(super) fn explain(e: &serde_yaml::Error) -> Option<String> {
+    let m = e.to_string();
+    if m.starts_with("recursion limit exceeded") {
+        Some(format!(
+            "the file nests lists or mappings more than {MAX_DEPTH} levels deep; a traveller is only a few levels deep: check that this is the right file"
+        ))
+    } else if m.starts_with("repetition limit exceeded") {
+        Some(
+            "the file's aliases (`*name`) repeat an anchor far too many times; write the values out instead, or check that this is the right file"
+                .into(),
+        )
+    } else {
+        None
+    }
+}
+
+fn refused(message: String) -> LoadError {
+    LoadError::Shape {
+        line: 1,
+        col: 1,
+        message,
+    }
+}
+
+/// Walks a document, aliases expanded, counting values; stops once past `budget`.
+#[derive(Clone, Copy)]
+struct Count<'a> {
+    seen: &'a Cell<usize>,
+    budget: usize,
+}
+
+impl Count<'_> {
+    fn tick<E: de::Error>(self) -> Result<(), E> {
+        let n = self.seen.get() + 1;
+        self.seen.set(n);
+        if n > self.budget {
+            Err(E::custom("alias expansion over budget"))
+        } else {
+            Ok(())
+        }
+    }
+}
+
+impl<'de> DeserializeSeed<'de> for Count<'_> {
+    type Value = ();
+    fn deserialize<D: de::Deserializer<'de>>(self, d: D) -> Result<(), D::Error> {
+        d.deserialize_any(self)
+    }
+}
+
+impl<'de> Visitor<'de> for Count<'_> {
+    type Value = ();
+    fn expecting(&self, f: &mut fmt::Formatter) -> fmt::Result {
+        f.write_str("any YAML value")
+    }
+    fn visit_bool<E: de::Error>(self, _: bool) -> Result<(), E> {
+        self.tick()
+    }
+    fn visit_i64<E: de::Error>(self, _: i64) -> Result<(), E> {
+        self.tick()
+    }
+    fn visit_u64<E: de::Error>(self, _: u64) -> Result<(), E> {
+        self.tick()
+    }
+    fn visit_i128<E: de::Error>(self, _: i128) -> Result<(), E> {
+        self.tick()
+    }
+    fn visit_u128<E: de::Error>(self, _: u128) -> Result<(), E> {
+        self.tick()
+    }
+    fn visit_f64<E: de::Error>(self, _: f64) -> Result<(), E> {
+        self.tick()
+    }
+    fn visit_str<E: de::Error>(self, _: &str) -> Result<(), E> {
+        self.tick()
+    }
+    fn visit_bytes<E: de::Error>(self, _: &[u8]) -> Result<(), E> {
+        self.tick()
+    }
+    fn visit_unit<E: de::Error>(self) -> Result<(), E> {
+        self.tick()
+    }
+    fn visit_none<E: de::Error>(self) -> Result<(), E> {
+        self.tick()
+    }
+    fn visit_some<D: de::Deserializer<'de>>(self, d: D) -> Result<(), D::Error> {
+        self.deserialize(d)
+    }
+    fn visit_newtype_struct<D: de::Deserializer<'de>>(self, d: D) -> Result<(), D::Error> {
+        self.deserialize(d)
+    }
+    fn visit_seq<A: de::SeqAccess<'de>>(self, mut seq: A) -> Result<(), A::Error> {
+        self.tick()?;
+        while seq.next_element_seed(self)?.is_some() {}
+        Ok(())
+    }
+    fn visit_map<A: de::MapAccess<'de>>(self, mut map: A) -> Result<(), A::Error> {
+        self.tick()?;
+        while map.next_key_seed(self)?.is_some() {
+            map.next_value_seed(self)?;
+        }
+        Ok(())
+    }
+    fn visit_enum<A: de::EnumAccess<'de>>(self, data: A) -> Result<(), A::Error> {
+        use de::VariantAccess;
+        self.tick()?;
+        let ((), variant) = data.variant_seed(self)?;
+        variant.newtype_variant_seed(self)
+    }
+}
