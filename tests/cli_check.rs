@@ -71,3 +71,29 @@ fn no_file_is_a_usage_error() {
     let out = bin().arg("check").output().unwrap();
     assert_eq!(out.status.code(), Some(2));
 }
+
+#[test]
+fn every_sample_file_is_clean_including_the_shop_file() {
+    // `tiltbook check sample-jobs/*.yaml` must exit 0: the shop file is checked as a shop file.
+    let mut files: Vec<PathBuf> = std::fs::read_dir(root("sample-jobs"))
+        .unwrap()
+        .map(|e| e.unwrap().path())
+        .filter(|p| p.extension().is_some_and(|x| x == "yaml"))
+        .collect();
+    files.sort();
+    let out = bin().arg("check").args(&files).output().unwrap();
+    let so = String::from_utf8_lossy(&out.stdout);
+    assert_eq!(out.status.code(), Some(0), "{so}");
+    assert!(so.contains("demo-shop.yaml: ok (shop file)"), "{so}");
+    assert_eq!(so.lines().count(), files.len(), "{so}");
+}
+
+#[test]
+fn a_broken_shop_file_is_reported_with_line_and_column() {
+    let bad = root("tests/data/blocks-bad-shops/unknown-key.yaml");
+    let out = bin().arg("check").arg(&bad).output().unwrap();
+    let so = String::from_utf8_lossy(&out.stdout);
+    assert_eq!(out.status.code(), Some(1), "{so}");
+    assert!(so.starts_with(&format!("{}:8:5: ", bad.display())), "{so}");
+    assert!(so.contains("unknown field `colour`"), "{so}");
+}

@@ -1,4 +1,4 @@
-//! `tiltbook check FILE…`: read traveller and plan files and list every problem as
+//! `tiltbook check FILE…`: read traveller, plan and shop files and list every problem as
 //! `file:line:col: message`. Exit 0 when all are clean, 1 when a problem was found, 2 when a
 //! file cannot be read.
 
@@ -14,7 +14,7 @@ use std::process::ExitCode;
     after_help = "Examples:\n  tiltbook check sample-jobs/ds-204-plan.yaml\n  tiltbook check jobs/*.yaml\n\nExit status: 0 all clean, 1 problems found, 2 a file could not be read."
 )]
 pub struct CheckArgs {
-    /// Traveller or plan files to check
+    /// Traveller, plan or shop files to check
     #[arg(required = true, value_name = "FILE")]
     pub files: Vec<PathBuf>,
 }
@@ -41,6 +41,17 @@ pub fn run(args: &CheckArgs, out: &mut dyn Write) -> Result<ExitCode, CliError> 
                 continue;
             }
         };
+        if looks_like_shop_file(&text) {
+            let source = crate::shop::ShopSource::Option(path.clone());
+            match crate::shop::Shop::parse(&text, &name, source) {
+                Ok(_) => emit(out, &format!("{name}: ok (shop file)\n"))?,
+                Err(e) => {
+                    emit(out, &format!("{e}\n"))?;
+                    found = true;
+                }
+            }
+            continue;
+        }
         let problems = match schema::parse(&text) {
             Err(e) => {
                 let p = e.pos();
@@ -75,4 +86,11 @@ pub fn run(args: &CheckArgs, out: &mut dyn Write) -> Result<ExitCode, CliError> 
     } else {
         ExitCode::SUCCESS
     })
+}
+
+/// A shop file (fixtures and block sets) rather than a traveller: it has a top-level
+/// `fixtures:` or `block_sets:` key and neither `job:` nor `features:`.
+fn looks_like_shop_file(text: &str) -> bool {
+    let top = |key: &str| text.lines().any(|l| l.starts_with(key));
+    (top("fixtures:") || top("block_sets:")) && !top("job:") && !top("features:")
 }
