@@ -93,18 +93,32 @@ fn deep_nesting_is_refused_without_overflowing_the_stack() {
         let e = parse(&nested(depth)).unwrap_err();
         let m = message(&e);
         assert!(
-            m.contains(&format!("more than {MAX_DEPTH} levels deep")),
+            m.contains(&format!("more than the {MAX_DEPTH} levels deep allowed")),
             "{depth}: {m}"
         );
+        assert_eq!(e.pos().line, 2, "{m}");
     }
-    // the same with block mappings, one level per line
+    // the same with block mappings, one level per line: refused at the line that goes too deep
     let mut s = String::from("schema: 1\njob:\n");
     for i in 0..2_000 {
         s.push_str(&" ".repeat(i + 1));
         s.push_str("k:\n");
     }
+    let e = parse(&s).unwrap_err();
+    assert!(message(&e).contains("levels deep"), "{e}");
+    // `job:` on line 2 is level 1 of its own lines; line 3 + 64 is the 65th
+    assert_eq!(e.pos().line, MAX_DEPTH + 3, "{e}");
+    // `- - - …` on one line, 4 MB of it
+    let s = format!("schema: 1\njob:\n{}x\n", "- ".repeat(2_000_000));
+    assert!(message(&parse(&s).unwrap_err()).contains("levels deep"));
+    // brackets spread over many lines: the YAML reader's own limit, with a clear message
+    let s = format!(
+        "schema: 1\njob:{}{}\n",
+        " [\n".repeat(10_000),
+        " ]\n".repeat(10_000)
+    );
     let m = message(&parse(&s).unwrap_err());
-    assert!(m.contains("levels deep"), "{m}");
+    assert!(m.contains("more than 128 levels deep"), "{m}");
 }
 
 #[test]

@@ -84,3 +84,53 @@ fn sample_stacks_agree_with_the_sine_table() {
         "2.5000 in"
     );
 }
+
+#[test]
+fn the_corrected_feature_carries_its_swap_and_the_kinds_are_complete() {
+    use tiltbook::units::{Length, Unit};
+    let t = parse(&read("ds-204-finished.yaml")).unwrap().traveller;
+    let inch = |s: &str| Length::parse(s, Unit::In).unwrap();
+    // F3, attempt 1: the 0.137 typed in for the 0.136 as the stack screen records it
+    let f3 = t.feature("F3").unwrap();
+    let s = f3.attempts[0].stack.as_ref().unwrap();
+    assert_eq!(s.swaps.len(), 1);
+    assert_eq!(
+        (s.swaps[0].planned, s.swaps[0].used),
+        (inch("0.136"), inch("0.137"))
+    );
+    assert!(s.swaps[0].reason.is_empty());
+    assert_eq!(s.height, inch("1.3372"));
+    // θ = asin(H/C) on the 5.00004 in bar (DOMAIN; angles-from-stack.csv method)
+    let want = (1.3372f64 / 5.00004).asin().to_degrees();
+    assert!(
+        (s.achieved.deg() - want).abs() < 1e-6,
+        "{}",
+        s.achieved.deg()
+    );
+    assert_eq!(
+        tiltbook::traveller::report::flags(&t, f3),
+        vec![tiltbook::traveller::report::Flag::SwappedByHand]
+    );
+    // F4: both plates, both sweeps, a verdict on both
+    let a = &t.feature("F4").unwrap().attempts[0];
+    // compound.csv row 30,20 on 5 in: 2.5 and 1.50313289 in; on the 4.99998 in plate the
+    // other is 1.50312688 in, 1.5031 in on the 0.0001 in grid
+    assert_eq!(a.stack.as_ref().unwrap().height, inch("2.5"));
+    assert_eq!(a.stack_b.as_ref().unwrap().height, inch("1.5031"));
+    assert!(a.sweep.as_ref().unwrap().complete() && a.sweep_b.as_ref().unwrap().complete());
+    let j = a.judgement.as_ref().unwrap();
+    let v = j.view_b.as_ref().expect("view B judged");
+    assert_eq!((j.verdict, v.verdict), (Verdict::Doubt, Verdict::Pass));
+    // view B's residual is atan of its own sweep's slope (indicator-slope rule)
+    // (the file keeps angles to 0.001")
+    let want = tiltbook::units::Angle::from_rad(v.fit.slope.atan());
+    assert!((v.residual.arcsec() - want.arcsec()).abs() <= 0.001);
+    // F2: the taper, set at its half angle on the 10.0001 in centres: tapers.csv 1:20 →
+    // 1.4320961842°, H = 10.0001·sin(half) = 0.249924 in → 0.2499 in
+    let f2 = t.feature("F2").unwrap();
+    let a = f2.accepted_attempt().unwrap();
+    assert_eq!(a.stack.as_ref().unwrap().height, inch("0.2499"));
+    assert!((f2.setting_angle().unwrap().deg() - 1.4320961842).abs() < 1e-9);
+    assert_eq!(a.judgement.as_ref().unwrap().verdict, Verdict::Pass);
+    assert_eq!(f2.state, FeatureState::Signed);
+}

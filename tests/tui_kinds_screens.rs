@@ -35,7 +35,13 @@ fn compound_stack_readings_and_verdict() {
     let (mut app, mut r) = app();
     to_stack_of(&mut app, &mut r, 3); // F4, compound A 30° B 20°
     let s = snap("stack_compound", &mut app);
-    for want in ["Near plate (A)", "Other plate (B)", "1.5031 in", "View B", "true slope 34°19'"] {
+    for want in [
+        "Near plate (A)",
+        "Other plate (B)",
+        "1.5031 in",
+        "View B",
+        "true slope 34°19'",
+    ] {
         assert!(s.contains(want), "{want}:\n{s}");
     }
     stack_to_readings(&mut app, &mut r);
@@ -55,7 +61,11 @@ fn compound_stack_readings_and_verdict() {
     }
     enter(&mut app, &mut r);
     let s = snap("verdict_compound", &mut app);
-    for want in ["FAIL: view B outside the tolerance", "view A (near)", "view B (other)"] {
+    for want in [
+        "FAIL: view B outside the tolerance",
+        "view A (near)",
+        "view B (other)",
+    ] {
         assert!(s.contains(want), "{want}:\n{s}");
     }
 }

@@ -330,7 +330,10 @@ fn the_overview_leads_into_review_and_back() {
         "{:?}",
         app.status
     );
-    assert!(!app.doc.unread_handovers("LV").is_empty(), "nothing marked read");
+    assert!(
+        !app.doc.unread_handovers("LV").is_empty(),
+        "nothing marked read"
+    );
     act(&mut app, &mut r, Action::Review);
     assert_eq!(app.screen, Screen::Review);
     esc(&mut app, &mut r);

@@ -55,10 +55,7 @@ fn review_list_and_the_flagged_filter() {
     act(&mut app, &mut r, Action::Filter);
     snap("review_flagged", &mut app);
     let s = text(&mut app, 80, 24);
-    assert!(
-        !s.contains("F1   dovetail"),
-        "F1 has no flag: hidden\n{s}"
-    );
+    assert!(!s.contains("F1   dovetail"), "F1 has no flag: hidden\n{s}");
     assert!(s.contains("F3   end chamfer"), "F3's swap is flagged\n{s}");
     assert!(s.contains("swap straight"), "{s}");
 }
@@ -118,7 +115,13 @@ fn review_of_the_compound_feature_shows_both_plates_views_and_verdicts() {
     let mut all: String = pg
         .lines
         .iter()
-        .map(|l| l.spans.iter().map(|s| s.content.as_ref()).collect::<String>() + "\n")
+        .map(|l| {
+            l.spans
+                .iter()
+                .map(|s| s.content.as_ref())
+                .collect::<String>()
+                + "\n"
+        })
         .collect();
     all.push_str(&charts);
     for want in [

@@ -58,28 +58,40 @@ fn a_compound_angle_records_both_plates_from_one_set() {
         act(&mut app, &mut r, Action::Tick);
     }
     enter(&mut app, &mut r);
-    assert_eq!(step(&app), Some(Step::Stack), "the other plate is not wrung yet");
+    assert_eq!(
+        step(&app),
+        Some(Step::Stack),
+        "the other plate is not wrung yet"
+    );
     for _ in near.blocks.len()..total {
         act(&mut app, &mut r, Action::Tick);
     }
     enter(&mut app, &mut r);
     assert_eq!(step(&app), Some(Step::Safety));
     let a = app.attempt().unwrap();
-    assert!(a.stack.as_ref().unwrap().built.is_some() && a.stack_b.as_ref().unwrap().built.is_some());
+    assert!(
+        a.stack.as_ref().unwrap().built.is_some() && a.stack_b.as_ref().unwrap().built.is_some()
+    );
     let built = app
         .doc
         .events
         .iter()
         .rfind(|e| e.kind == EventKind::StackBuilt)
         .unwrap();
-    assert!(built.detail.contains("near plate 2.5000 in") && built.detail.contains("other plate 1.5031 in"));
+    assert!(
+        built.detail.contains("near plate 2.5000 in")
+            && built.detail.contains("other plate 1.5031 in")
+    );
     // back and forth keeps both
     esc(&mut app, &mut r);
     esc(&mut app, &mut r);
     assert_eq!(step(&app), Some(Step::BlockSet));
     enter(&mut app, &mut r); // the same set: nothing is solved again
     assert_eq!(step(&app), Some(Step::Stack));
-    assert_eq!(app.attempt().unwrap().stack_b.as_ref().unwrap().height, Length::inches(1.5031));
+    assert_eq!(
+        app.attempt().unwrap().stack_b.as_ref().unwrap().height,
+        Length::inches(1.5031)
+    );
     assert_reopens(&app);
 }
 
@@ -106,7 +118,11 @@ fn a_block_of_either_plate_can_be_swapped_but_not_for_one_the_other_uses() {
     assert!(app.prompt.as_ref().unwrap().title.contains("other plate"));
     typ(&mut app, &mut r, &big.number(tiltbook::units::Unit::In, 4));
     enter(&mut app, &mut r);
-    let err = app.prompt.as_ref().and_then(|p| p.error.clone()).unwrap_or_default();
+    let err = app
+        .prompt
+        .as_ref()
+        .and_then(|p| p.error.clone())
+        .unwrap_or_default();
     assert!(err.contains("no 2.0000 in block free"), "{err}");
     esc(&mut app, &mut r);
     // the 0.1030 for a 0.1040: the other plate's angle follows what was built
@@ -147,7 +163,16 @@ fn a_compound_angle_is_swept_in_both_views_and_passes_only_when_both_do() {
     esc(&mut app, &mut r);
     assert_eq!(step(&app), Some(Step::Sweep));
     assert!(!app.ui.readings.other_view);
-    assert_eq!(app.attempt().unwrap().sweep.as_ref().unwrap().readings.len(), 3);
+    assert_eq!(
+        app.attempt()
+            .unwrap()
+            .sweep
+            .as_ref()
+            .unwrap()
+            .readings
+            .len(),
+        3
+    );
     enter(&mut app, &mut r);
     assert!(app.ui.readings.other_view);
     // view B: a rise of 0.0200 in over 4 in is atan(0.005) = 17'11" (indicator-slope rule of
@@ -162,10 +187,16 @@ fn a_compound_angle_is_swept_in_both_views_and_passes_only_when_both_do() {
     assert!((v.residual.arcsec() - (0.005f64).atan().to_degrees() * 3600.0).abs() < 0.01);
     assert_eq!(v.verdict, Verdict::Fail);
     assert_eq!(j.verdict, Verdict::Fail, "the worse of the two views");
-    assert!(j.correction.is_some() && v.correction.is_some(), "a change for each plate");
+    assert!(
+        j.correction.is_some() && v.correction.is_some(),
+        "a change for each plate"
+    );
     // the other view's correction levels it: the new plate sets view B less its residual
     let o = v.correction.as_ref().unwrap();
-    assert!(o.delta.nm() < 0, "the surface rises: the other plate comes down");
+    assert!(
+        o.delta.nm() < 0,
+        "the surface rises: the other plate comes down"
+    );
     let events_b = app
         .doc
         .events
@@ -230,7 +261,10 @@ fn a_taper_is_set_on_sine_centres_at_its_half_angle() {
     let a = app.attempt().unwrap();
     let s = a.stack.as_ref().unwrap();
     assert_eq!(s.height, Length::inches(0.125));
-    assert!(s.blocks.iter().all(|b| !b.protector), "too short for the protectors");
+    assert!(
+        s.blocks.iter().all(|b| !b.protector),
+        "too short for the protectors"
+    );
     assert!(
         app.ui
             .solve_note
@@ -265,7 +299,10 @@ fn a_small_angle_offers_two_stacks_and_a_longer_fixture_and_records_the_choice()
     // 5 in · sin 0.5° = 0.0436331 in (direct computation): below the set's 0.0500 in block
     let rem = app.ui.remedies.clone().expect("the remedies are offered");
     assert!(rem.open);
-    assert!(app.attempt().unwrap().stack.is_none(), "nothing is recorded before the choice");
+    assert!(
+        app.attempt().unwrap().stack.is_none(),
+        "nothing is recorded before the choice"
+    );
     let list = options(&rem.small);
     assert_eq!(list[0], Pick::Two);
     assert!(list.iter().any(|p| matches!(p, Pick::Longer(_))));
@@ -274,7 +311,10 @@ fn a_small_angle_offers_two_stacks_and_a_longer_fixture_and_records_the_choice()
     enter(&mut app, &mut r);
     let a = app.attempt().unwrap().clone();
     let raised = a.stack.as_ref().unwrap();
-    let pivot = a.stack_pivot.as_ref().expect("the stack under the pivot roll");
+    let pivot = a
+        .stack_pivot
+        .as_ref()
+        .expect("the stack under the pivot roll");
     assert_eq!(raised.height - pivot.height, Length::inches(0.0436));
     // θ = asin((R − P)/C), DOMAIN (small angles); both record it
     let want = Angle::from_rad((0.0436f64 / 5.00002).asin());
@@ -285,7 +325,10 @@ fn a_small_angle_offers_two_stacks_and_a_longer_fixture_and_records_the_choice()
     // r shows the choice again; the longer fixture becomes the attempt's, with the reason
     act(&mut app, &mut r, Action::Remedies);
     assert!(app.ui.remedies.as_ref().unwrap().open);
-    let k = list.iter().position(|p| matches!(p, Pick::Longer(_))).unwrap();
+    let k = list
+        .iter()
+        .position(|p| matches!(p, Pick::Longer(_)))
+        .unwrap();
     for _ in 0..k {
         act(&mut app, &mut r, Action::Down);
     }
@@ -295,7 +338,10 @@ fn a_small_angle_offers_two_stacks_and_a_longer_fixture_and_records_the_choice()
     assert_ne!(fx.id, "SB5-117");
     assert!(fx.reason.contains("small angle"));
     assert!(a.stack_pivot.is_none());
-    assert_eq!(app.doc.feature("F1").unwrap().state, FeatureState::SetChosen);
+    assert_eq!(
+        app.doc.feature("F1").unwrap().state,
+        FeatureState::SetChosen
+    );
     assert_reopens(&app);
     // and back to two stacks: the first fixture again
     act(&mut app, &mut r, Action::Remedies);
@@ -326,7 +372,11 @@ fn a_failed_two_stack_attempt_corrects_the_difference() {
     // ΔH = C·(sin(θ − δ) − sin θ) (DOMAIN, correction), on the 0.0001 in grid
     let th = a.stack.as_ref().unwrap().achieved.rad();
     let dh = 5.00002 * ((th - j.residual.rad()).sin() - th.sin());
-    assert!((c.delta.as_in() - dh).abs() <= 0.00005 + 1e-9, "{} {dh}", c.delta.as_in());
+    assert!(
+        (c.delta.as_in() - dh).abs() <= 0.00005 + 1e-9,
+        "{} {dh}",
+        c.delta.as_in()
+    );
     act(&mut app, &mut r, Action::NewAttempt);
     let a = app.attempt().unwrap().clone();
     assert_eq!(a.number, 2);
@@ -339,7 +389,10 @@ fn a_failed_two_stack_attempt_corrects_the_difference() {
 fn the_note_for_the_next_shift_is_asked_only_with_something_to_hand_over() {
     // opened and closed: nothing to hand over
     let (mut app, _) = tui_support::app();
-    let effects = update(&mut app, Msg::Key(tiltbook::tui::keymap::Input::Act(Action::Quit)));
+    let effects = update(
+        &mut app,
+        Msg::Key(tiltbook::tui::keymap::Input::Act(Action::Quit)),
+    );
     assert!(app.quit && app.prompt.is_none(), "{effects:?}");
     // a feature opened but nothing chosen yet: still nothing
     let (mut app, mut r) = tui_support::app();
@@ -356,4 +409,71 @@ fn the_note_for_the_next_shift_is_asked_only_with_something_to_hand_over() {
         app.prompt.as_ref().map(|p| &p.kind),
         Some(PromptKind::Handover)
     ));
+}
+
+#[test]
+fn another_set_clears_both_plates_and_builds_them_again() {
+    let (mut app, mut r) = app();
+    to_stack_of(&mut app, &mut r, 3);
+    // one block of the other plate on
+    app.ui.stack_sel = app.attempt().unwrap().stack.as_ref().unwrap().blocks.len();
+    act(&mut app, &mut r, Action::Tick);
+    assert!(app.attempt().unwrap().stack_b.as_ref().unwrap().blocks[0].wrung);
+    esc(&mut app, &mut r);
+    assert_eq!(step(&app), Some(Step::BlockSet));
+    act(&mut app, &mut r, Action::Down); // the metric set
+    enter(&mut app, &mut r);
+    assert!(
+        matches!(
+            app.prompt.as_ref().map(|p| &p.kind),
+            Some(PromptKind::Redo(_))
+        ),
+        "a wrung block is later work: asked first"
+    );
+    enter(&mut app, &mut r);
+    let a = app.attempt().unwrap();
+    assert_eq!(a.block_set.as_ref().unwrap().id, "BX88-B");
+    let (n, o) = (a.stack.as_ref().unwrap(), a.stack_b.as_ref().unwrap());
+    assert!(
+        n.blocks.iter().chain(&o.blocks).all(|b| !b.wrung),
+        "built afresh"
+    );
+    // whole 0.001 mm steps of the metric set (0.0005 mm with its 1.0005 block)
+    assert!(n.height.nm() % 500 == 0 && o.height.nm() % 500 == 0);
+    assert_reopens(&app);
+}
+
+#[test]
+fn another_fixture_after_the_readings_clears_both_sweeps() {
+    let (mut app, mut r) = app();
+    to_stack_of(&mut app, &mut r, 3);
+    stack_to_readings(&mut app, &mut r);
+    readings(&mut app, &mut r, "4", &["0", "0.0001", "0"]);
+    enter(&mut app, &mut r); // on to view B
+    typ(&mut app, &mut r, "4");
+    enter(&mut app, &mut r);
+    typ(&mut app, &mut r, "3");
+    enter(&mut app, &mut r);
+    typ(&mut app, &mut r, "0");
+    enter(&mut app, &mut r);
+    assert!(app.attempt().unwrap().sweep_b.is_some());
+    // back to the fixtures: view B, view A, settle, safety, stack, set, fixture
+    for _ in 0..6 {
+        esc(&mut app, &mut r);
+    }
+    assert_eq!(step(&app), Some(Step::Fixture));
+    act(&mut app, &mut r, Action::Down);
+    enter(&mut app, &mut r);
+    assert!(matches!(
+        app.prompt.as_ref().map(|p| &p.kind),
+        Some(PromptKind::Redo(_))
+    ));
+    enter(&mut app, &mut r);
+    let a = app.attempt().unwrap();
+    assert!(
+        a.sweep.is_none() && a.sweep_b.is_none(),
+        "both views' readings go"
+    );
+    assert!(a.stack.is_none() && a.stack_b.is_none());
+    assert_reopens(&app);
 }

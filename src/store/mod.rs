@@ -16,10 +16,10 @@ mod lock;
 mod read;
 
 pub use atomic::{backup_path, sync_folder, write_atomic};
-pub use read::read_capped;
 pub use lock::{
     Liveness, Lock, LockInfo, host_name, lock_path, process_alive, read_lock, release_all_locks,
 };
+pub use read::read_capped;
 
 use crate::traveller::{EventKind, LoadError, Loaded, Traveller, schema};
 use lock::LockFailure;

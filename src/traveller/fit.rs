@@ -16,12 +16,9 @@ impl Sweep {
                     .ok_or("the travel is not given yet; type it in the travel field")?;
                 sweep::Sweep::even(travel, self.readings.clone())
             }
-            SweepMode::Pairs => sweep::Sweep::at(
-                self.pairs
-                    .iter()
-                    .map(|p| (p.position, p.reading))
-                    .collect(),
-            ),
+            SweepMode::Pairs => {
+                sweep::Sweep::at(self.pairs.iter().map(|p| (p.position, p.reading)).collect())
+            }
         };
         r.map_err(|e| e.to_string())
     }

@@ -190,7 +190,11 @@ impl Verdict {
             Verdict::Doubt => 1,
             Verdict::Fail => 2,
         };
-        if rank(other) > rank(self) { other } else { self }
+        if rank(other) > rank(self) {
+            other
+        } else {
+            self
+        }
     }
 }
 
@@ -246,7 +250,11 @@ mod tests {
         );
         // the same row: the lower (other) plate is set to 17.495240757°
         let set = c.setting().unwrap();
-        assert!((set.other.deg() - 17.495240757).abs() < 1e-8, "{}", set.other.deg());
+        assert!(
+            (set.other.deg() - 17.495240757).abs() < 1e-8,
+            "{}",
+            set.other.deg()
+        );
         let flipped = Compound {
             near: NearPlate::B,
             ..c.clone()

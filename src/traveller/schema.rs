@@ -8,8 +8,8 @@ use thiserror::Error;
 
 #[path = "schema_guard.rs"]
 mod guard;
-pub use guard::{MAX_BYTES, MAX_DEPTH, describe_size};
 pub(crate) use guard::too_large;
+pub use guard::{MAX_BYTES, MAX_DEPTH, describe_size};
 
 /// Why a traveller file could not be read into a job.
 #[derive(Debug, Clone, PartialEq, Error)]

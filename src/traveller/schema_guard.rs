@@ -11,9 +11,14 @@ use std::fmt;
 /// 2 MiB.
 pub const MAX_BYTES: u64 = 16 * 1024 * 1024;
 
-/// How deeply lists and mappings may nest: the YAML reader refuses deeper input with an error
-/// (it never recurses past this). A traveller is about eight levels deep.
-pub const MAX_DEPTH: usize = 128;
+/// How deeply lists and mappings may nest on one line (indentation levels, `- ` items and
+/// brackets counted together), checked in one pass before anything else reads the text. A
+/// traveller is about eight levels deep.
+pub const MAX_DEPTH: usize = 64;
+
+/// The YAML reader's own limit (it never recurses past this; brackets spread over many lines
+/// are stopped here).
+const READER_DEPTH: usize = 128;
 
 /// How many values aliases may add beyond what the text itself could hold. Hand-written files
 /// may use an anchor (`&name`) and a few aliases; expansion past this is refused.
@@ -45,6 +50,15 @@ pub(super) fn check(text: &str) -> Result<(), LoadError> {
     if bytes > MAX_BYTES {
         return Err(refused(too_large(bytes)));
     }
+    if let Some((line, depth)) = too_deep(text) {
+        return Err(LoadError::Shape {
+            line,
+            col: 1,
+            message: format!(
+                "lists or mappings nest {depth} levels deep here, more than the {MAX_DEPTH} levels deep allowed; a traveller is only a few levels deep: check that this is the right file"
+            ),
+        });
+    }
     // no anchor, no alias to expand: a file without `&` cannot blow up
     if !text.contains('&') {
         return Ok(());
@@ -71,7 +85,7 @@ pub(super) fn explain(e: &serde_yaml::Error) -> Option<String> {
     let m = e.to_string();
     if m.starts_with("recursion limit exceeded") {
         Some(format!(
-            "the file nests lists or mappings more than {MAX_DEPTH} levels deep; a traveller is only a few levels deep: check that this is the right file"
+            "the file nests lists or mappings more than {READER_DEPTH} levels deep; a traveller is only a few levels deep: check that this is the right file"
         ))
     } else if m.starts_with("repetition limit exceeded") {
         Some(
@@ -81,6 +95,59 @@ pub(super) fn explain(e: &serde_yaml::Error) -> Option<String> {
     } else {
         None
     }
+}
+
+/// The first line (from 1) nesting deeper than [`MAX_DEPTH`], and how deep, by a linear scan:
+/// open indentation levels, leading `- ` items and brackets on the line, counted together.
+fn too_deep(text: &str) -> Option<(usize, usize)> {
+    let mut open: Vec<usize> = Vec::new();
+    let mut block_scalar: Option<usize> = None;
+    for (i, raw) in text.lines().enumerate() {
+        let indent = raw.len() - raw.trim_start_matches(' ').len();
+        let body = raw[indent..].trim_end();
+        if let Some(b) = block_scalar {
+            if body.is_empty() || indent > b {
+                continue;
+            }
+            block_scalar = None;
+        }
+        if body.is_empty() || body.starts_with('#') {
+            continue;
+        }
+        while open.last().is_some_and(|&c| c >= indent) {
+            open.pop();
+        }
+        let mut rest = body;
+        let mut dashes = 0;
+        while rest == "-" || rest.starts_with("- ") {
+            dashes += 1;
+            rest = rest[1..].trim_start_matches(' ');
+        }
+        let mut level = 0usize;
+        let mut brackets = 0usize;
+        for b in rest.bytes() {
+            match b {
+                b'[' | b'{' => {
+                    level += 1;
+                    brackets = brackets.max(level);
+                }
+                b']' | b'}' => level = level.saturating_sub(1),
+                _ => {}
+            }
+        }
+        let depth = open.len() + dashes + brackets;
+        if depth > MAX_DEPTH {
+            return Some((i + 1, depth));
+        }
+        open.push(indent);
+        if rest
+            .split_once(": ")
+            .is_some_and(|(_, v)| v.trim_start().starts_with(['|', '>']))
+        {
+            block_scalar = Some(indent);
+        }
+    }
+    None
 }
 
 fn refused(message: String) -> LoadError {

@@ -5,7 +5,7 @@ use super::field::Field;
 use super::keymap::{Ctx, Input};
 use super::rank::{FixtureOption, SetOption};
 use super::shop_view::ShopView;
-use super::solve::{SolveJob, Solution};
+use super::solve::{Solution, SolveJob};
 use super::theme::Theme;
 use crate::blocks::small::SmallAngle;
 use crate::traveller::{Attempt, Feature, Step, Traveller};

@@ -119,6 +119,7 @@ fn swaps_text(f: &Feature, unit: Unit) -> String {
             a.stack
                 .iter()
                 .chain(a.stack_b.iter())
+                .chain(a.stack_pivot.iter())
                 .flat_map(move |s| s.swaps.iter().map(move |w| (a.number, w)))
         })
         .map(|(n, w)| {

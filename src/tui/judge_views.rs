@@ -84,9 +84,10 @@ pub fn judge_other_view(i: &JudgeInput, c: &Compound) -> Result<ViewJudgement, S
         "",
     )?);
     let u = expanded(&budget);
-    let verdict: crate::traveller::Verdict = uncertainty::decide(deviation, &i.feature.tolerance, u, i.rule())
-        .verdict
-        .into();
+    let verdict: crate::traveller::Verdict =
+        uncertainty::decide(deviation, &i.feature.tolerance, u, i.rule())
+            .verdict
+            .into();
     Ok(ViewJudgement {
         fit: fit_record(&fit),
         residual,

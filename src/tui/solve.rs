@@ -306,7 +306,13 @@ mod tests {
         let fx = SineFixture::equal_rolls(Length::inches(5.0));
         let setting = crate::geometry::compound(Angle::from_deg(30.0), Angle::from_deg(20.0))
             .expect("a setting");
-        let r = run(&shop.sets[0], &SolveJob::Compound { fixture: fx, setting });
+        let r = run(
+            &shop.sets[0],
+            &SolveJob::Compound {
+                fixture: fx,
+                setting,
+            },
+        );
         let Ok(Solution::Two { first, second, .. }) = r else {
             panic!("{r:?}")
         };

@@ -4,7 +4,7 @@
 use super::app::{App, Effect, Level, Msg, Prompt, PromptKind, Screen, prev_step};
 use super::chrome::{MIN_H, MIN_W};
 use super::field::Field;
-use super::flow::{choose, readings, review, settle, shift, stack, verdict};
+use super::flow::{choose, readings, review, settle, shift, stack, verdict, wring};
 use super::keymap::{Action, Input};
 use crate::traveller::{EventKind, FeatureState, Stamp, Step};
 
@@ -281,7 +281,7 @@ fn flow_key(app: &mut App, feature: usize, step: Step, input: Input) -> Vec<Effe
     match step {
         Step::Fixture => choose::fixture_key(app, input),
         Step::BlockSet => choose::set_key(app, input),
-        Step::Stack => stack::stack_key(app, input),
+        Step::Stack => wring::stack_key(app, input),
         Step::Safety => settle::safety_key(app, input),
         Step::Settle => settle::settle_key(app, input),
         Step::Sweep => readings::readings_key(app, input),
@@ -326,7 +326,7 @@ fn prompt_key(app: &mut App, input: Input) -> Vec<Effect> {
                 PromptKind::SetReason(i) => {
                     choose::answer_set_reason(app, *i, text.unwrap_or_default())
                 }
-                PromptKind::Swap(i) => stack::answer_swap(app, *i, text.unwrap_or_default()),
+                PromptKind::Swap(i) => wring::answer_swap(app, *i, text.unwrap_or_default()),
                 PromptKind::Redo(r) => Ok(choose::answer_redo(app, *r, p.carry.clone())),
                 PromptKind::Nonconforming => {
                     verdict::answer_nonconforming(app, text.unwrap_or_default())

@@ -162,7 +162,8 @@ fn flow_header(f: &mut Frame, area: Rect, app: &App, step: Step) -> Rect {
     let reached = app.attempt().map_or(Step::Fixture, |a| a.step);
     let name = format!("{} {}", feat.id, feat.name);
     let rest = format!("  tol {}  attempt {attempt}", feat.tolerance);
-    let room = (area.width as usize).saturating_sub(name.chars().count() + rest.chars().count() + 2);
+    let room =
+        (area.width as usize).saturating_sub(name.chars().count() + rest.chars().count() + 2);
     let head = Line::from(vec![
         Span::styled(name, t.title()),
         Span::raw(format!("  {}{rest}", nominal_within(feat, room))),

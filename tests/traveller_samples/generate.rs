@@ -88,7 +88,14 @@ impl Shift<'_> {
     }
 
     /// Start an attempt and go as far as the settled stack.
-    fn setup(&mut self, f: &str, fx: &str, blocks: &[&str], swap: Option<HandSwap>, reason: &str) -> u32 {
+    fn setup(
+        &mut self,
+        f: &str,
+        fx: &str,
+        blocks: &[&str],
+        swap: Option<HandSwap>,
+        reason: &str,
+    ) -> u32 {
         let n = self.start(f, fx, reason);
         let fxs = self.t.fixture(fx).unwrap().clone();
         let (bl, swaps) = self.wring(f, n, blocks, swap, "", &fxs);
@@ -292,7 +299,11 @@ impl Shift<'_> {
                 entered: None,
             });
         }
-        let done = slot(self.attempt(f), other).as_ref().unwrap().readings.len();
+        let done = slot(self.attempt(f), other)
+            .as_ref()
+            .unwrap()
+            .readings
+            .len();
         let view = if other { "view B " } else { "" };
         for r in &readings[done..upto] {
             let at = self.log(

@@ -41,6 +41,7 @@ pub fn flags(t: &Traveller, f: &Feature) -> Vec<Flag> {
         a.stack
             .iter()
             .chain(a.stack_b.iter())
+            .chain(a.stack_pivot.iter())
             .any(Stack::swapped_by_hand)
     }) {
         out.push(Flag::SwappedByHand);

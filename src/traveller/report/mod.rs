@@ -277,10 +277,17 @@ fn feature_section(t: &Traveller, f: &Feature, u: Unit, d: &mut Doc) {
                         None => j.deviation.arcsec_signed(1),
                     }),
                     j.map_or("—".into(), |j| j.verdict.label().to_string()),
-                    j.and_then(|j| j.correction.as_ref())
-                        .map_or("—".into(), |c| {
+                    j.map_or("—".into(), |j| {
+                        let one = |c: &Correction| {
                             format!("{} → {}", c.delta.show_fine(u), len(c.height, u))
-                        }),
+                        };
+                        let other = j.view_b.as_ref().and_then(|v| v.correction.as_ref());
+                        match (&j.correction, other) {
+                            (Some(n), Some(o)) => format!("near {}; other {}", one(n), one(o)),
+                            (Some(c), None) => one(c),
+                            _ => "—".into(),
+                        }
+                    }),
                     a.note.clone(),
                 ]
             })

@@ -86,10 +86,12 @@ fn chosen_id(app: &App, fixture: bool) -> Option<String> {
 /// Work after the stack that a change of fixture or set would clear.
 fn later_work(app: &App) -> bool {
     app.attempt().is_some_and(|a| {
-        a.stack
-            .as_ref()
-            .is_some_and(|s| s.blocks.iter().any(|b| b.wrung))
+        [&a.stack, &a.stack_b, &a.stack_pivot]
+            .into_iter()
+            .flatten()
+            .any(|s| s.blocks.iter().any(|b| b.wrung))
             || a.sweep.is_some()
+            || a.sweep_b.is_some()
     })
 }
 
@@ -170,12 +172,18 @@ pub fn answer_fixture_reason(
 fn clear_from_stack(app: &mut App) {
     if let Some(a) = app.attempt_mut() {
         a.stack = None;
+        a.stack_b = None;
+        a.stack_pivot = None;
         a.safety = None;
         a.settle = None;
         a.sweep = None;
+        a.sweep_b = None;
         a.judgement = None;
     }
     app.ui.solve_error = None;
+    app.ui.solve_note = None;
+    // the remedies were worked out for the fixture and set that are changing
+    app.ui.remedies = None;
 }
 
 fn apply_fixture(app: &mut App, index: usize, reason: String) -> Vec<Effect> {

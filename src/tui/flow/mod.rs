@@ -10,6 +10,7 @@ pub mod settle;
 pub mod shift;
 pub mod stack;
 pub mod verdict;
+pub mod wring;
 
 use super::app::App;
 use super::keymap::{Action, Input};

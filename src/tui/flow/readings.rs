@@ -438,7 +438,9 @@ fn to_other_view(app: &mut App) -> Vec<Effect> {
         .map_or(("A", "B"), |c| c.letters());
     app.say(
         Level::Done,
-        format!("view {near} is in: now sweep view {other} along the other plate (Esc: back to {near})"),
+        format!(
+            "view {near} is in: now sweep view {other} along the other plate (Esc: back to {near})"
+        ),
     );
     Vec::new()
 }

@@ -9,7 +9,8 @@ use super::super::keymap::{Action, Input};
 use super::super::solve::blocks_of;
 use super::super::update::{record, refuse_read_only};
 use super::move_sel;
-use super::stack::{parts, put_stacks, stack_changeable};
+use super::stack::{parts, put_stacks};
+use super::wring::stack_changeable;
 use crate::blocks::small::{Remedy, SmallAngle};
 use crate::traveller::{Choice, EventKind, Stamp, Step};
 
@@ -189,7 +190,11 @@ fn apply(app: &mut App, pick: Pick) -> Vec<Effect> {
             });
             a.step = Step::Stack;
         }
-        record(app, EventKind::FixtureChosen, format!("{fixture} ({reason})"));
+        record(
+            app,
+            EventKind::FixtureChosen,
+            format!("{fixture} ({reason})"),
+        );
         // the set stands: the log says so, and the state follows
         record(app, EventKind::SetChosen, format!("{set} kept"));
     }
@@ -202,10 +207,10 @@ fn apply(app: &mut App, pick: Pick) -> Vec<Effect> {
     if let Some(r) = app.ui.remedies.as_mut() {
         r.open = false;
     }
-    let left_off = matches!(pick, Pick::Two)
-        && s.two_stacks.as_ref().is_ok_and(|t| t.protectors_left_off);
-    app.ui.solve_note = left_off
-        .then(|| "two stacks from one set: the protector blocks are left off".to_string());
+    let left_off =
+        matches!(pick, Pick::Two) && s.two_stacks.as_ref().is_ok_and(|t| t.protectors_left_off);
+    app.ui.solve_note =
+        left_off.then(|| "two stacks from one set: the protector blocks are left off".to_string());
     app.say(
         Level::Done,
         format!(

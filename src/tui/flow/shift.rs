@@ -116,8 +116,7 @@ pub fn mid_feature(app: &App) -> bool {
     app.doc.features.iter().any(|f| {
         !f.is_finished()
             && f.state != FeatureState::Returned
-            && f
-                .current_attempt()
+            && f.current_attempt()
                 .is_some_and(|a| a.fixture.is_some() && a.step != Step::Done)
     })
 }

@@ -139,7 +139,10 @@ fn new_attempt(app: &mut App) -> Vec<Effect> {
     );
     let unit = app.doc.job.unit;
     let correction = match prev.judgement.as_ref() {
-        Some(j) => match (&j.correction, j.view_b.as_ref().and_then(|v| v.correction.as_ref())) {
+        Some(j) => match (
+            &j.correction,
+            j.view_b.as_ref().and_then(|v| v.correction.as_ref()),
+        ) {
             (Some(n), Some(o)) => format!(
                 "corrected stacks: near plate {}, other plate {}",
                 n.height.show(unit),

@@ -104,9 +104,7 @@ pub fn draw(f: &mut Frame, area: Rect, app: &App) {
     let wnom = if two_lines {
         widest(&|x| {
             let (a, b) = nominal_parts(x);
-            a.chars()
-                .count()
-                .max(b.map_or(0, |b| b.chars().count()))
+            a.chars().count().max(b.map_or(0, |b| b.chars().count()))
         }) + 1
     } else {
         full

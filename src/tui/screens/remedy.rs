@@ -101,10 +101,7 @@ pub fn draw(f: &mut Frame, area: Rect, app: &App) {
     }
     for l in &s.longer {
         if let Err(e) = &l.result {
-            lines.push(Line::styled(
-                format!("{}: {e}", l.candidate.id),
-                t.dim(),
-            ));
+            lines.push(Line::styled(format!("{}: {e}", l.candidate.id), t.dim()));
         }
     }
     if let Err(e) = &s.two_stacks {

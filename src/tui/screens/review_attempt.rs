@@ -5,7 +5,7 @@
 use super::arcsec;
 use super::review_feature::Builder;
 use crate::traveller::{
-    Attempt, Feature, Fit, FeatureKind, Judgement, Stack, Sweep, SweepMode, Traveller, Verdict,
+    Attempt, Feature, FeatureKind, Fit, Judgement, Stack, Sweep, SweepMode, Traveller, Verdict,
     validate::decide,
 };
 use crate::units::{Angle, Length, Unit};
@@ -60,7 +60,13 @@ fn stack_rows(b: &mut Builder, label: &str, what: &str, s: &Stack, unit: Unit) {
     }
 }
 
-pub(super) fn attempt_section(b: &mut Builder, t: &Traveller, f: &Feature, a: &Attempt, selected: bool) {
+pub(super) fn attempt_section(
+    b: &mut Builder,
+    t: &Traveller,
+    f: &Feature,
+    a: &Attempt,
+    selected: bool,
+) {
     let unit = t.job.unit;
     let verdict = a
         .judgement
@@ -105,9 +111,7 @@ pub(super) fn attempt_section(b: &mut Builder, t: &Traveller, f: &Feature, a: &A
     }
     match (&a.stack, &a.stack_b, &a.stack_pivot) {
         (Some(n), Some(o), _) => {
-            let (ln, lo) = f
-                .compound_angles()
-                .map_or(("A", "B"), |c| c.letters());
+            let (ln, lo) = f.compound_angles().map_or(("A", "B"), |c| c.letters());
             stack_rows(b, "Near", &format!("plate for view {ln}: "), n, unit);
             stack_rows(b, "Other", &format!("plate for view {lo}: "), o, unit);
         }
@@ -147,7 +151,10 @@ pub(super) fn attempt_section(b: &mut Builder, t: &Traveller, f: &Feature, a: &A
         None => String::new(),
     };
     let mut first = true;
-    for (k, s) in [a.sweep.as_ref(), a.sweep_b.as_ref()].into_iter().enumerate() {
+    for (k, s) in [a.sweep.as_ref(), a.sweep_b.as_ref()]
+        .into_iter()
+        .enumerate()
+    {
         if let Some(s) = s {
             readings_rows(b, if first { "Readings" } else { "" }, &view(k), s, unit);
             first = false;
@@ -161,7 +168,6 @@ pub(super) fn attempt_section(b: &mut Builder, t: &Traveller, f: &Feature, a: &A
         b.row("Note", a.note.trim(), warn);
     }
 }
-
 
 fn readings_rows(b: &mut Builder, label: &str, view: &str, s: &Sweep, unit: Unit) {
     let by = s.entered.as_ref().map_or(String::new(), |m| {
@@ -338,7 +344,10 @@ fn judgement_rows(
             } else {
                 String::new()
             };
-            b.text(label, &format!("{:>6.2}\"  {}{note}", l.u.arcsec(), l.source));
+            b.text(
+                label,
+                &format!("{:>6.2}\"  {}{note}", l.u.arcsec(), l.source),
+            );
             label = "";
         }
         let title = b.theme.title();

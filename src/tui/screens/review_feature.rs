@@ -291,7 +291,8 @@ pub fn draw(f: &mut Frame, area: Rect, app: &App, index: usize) {
         flags,
         if flags == 1 { "" } else { "s" }
     );
-    let room = (head.width as usize).saturating_sub(name.chars().count() + rest.chars().count() + 2);
+    let room =
+        (head.width as usize).saturating_sub(name.chars().count() + rest.chars().count() + 2);
     f.render_widget(
         Paragraph::new(vec![
             Line::from(vec![
@@ -345,7 +346,7 @@ pub fn draw(f: &mut Frame, area: Rect, app: &App, index: usize) {
                 bottom,
                 Some(second),
                 app.unit(),
-                boxed(&format!("view {lo}"), t),
+                boxed(&format!("{title}, view {lo}"), t),
                 t,
             );
         }

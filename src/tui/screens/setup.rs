@@ -52,9 +52,8 @@ pub fn draw_view(f: &mut Frame, area: Rect, app: &App) {
             None => (want.map(|w| w.other).unwrap_or_default(), Vec::new()),
         };
         let (ln, _) = c.letters();
-        let [l, r] =
-            Layout::horizontal([Constraint::Percentage(50), Constraint::Percentage(50)])
-                .areas(area);
+        let [l, r] = Layout::horizontal([Constraint::Percentage(50), Constraint::Percentage(50)])
+            .areas(area);
         let scene = SetupScene::new(fx, near.0, &near.1, unit);
         let lo = c.letters().1;
         setup_view::draw(f, l, &scene, boxed(&format!("Near plate ({ln})"), t), t);

@@ -82,11 +82,9 @@ fn block_lines(app: &App, a: &Attempt, rows: usize) -> Vec<Line<'static>> {
                 .and_then(|f| f.compound_angles())
                 .map(|c| c.letters());
             let what = match (w, letters) {
-                (Which::Main, Some((l, _))) | (Which::Second, Some((_, l))) => format!(
-                    "{} ({l}) at {}",
-                    part_name(a, w),
-                    s.achieved.dms(0)
-                ),
+                (Which::Main, Some((l, _))) | (Which::Second, Some((_, l))) => {
+                    format!("{} ({l}) at {}", part_name(a, w), s.achieved.dms(0))
+                }
                 _ => format!("{}: {}", part_name(a, w), s.height.show(unit)),
             };
             all.push((None, Line::styled(what, t.title())));

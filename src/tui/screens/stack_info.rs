@@ -197,13 +197,11 @@ fn compound_lines(app: &App, a: &Attempt, d: &mut Vec<Line<'static>>) {
     let (ln, lo) = c.letters();
     d.push(row(app, "Near", n.height.show(unit), plate(n, set.near)));
     d.push(row(app, "Other", o.height.show(unit), plate(o, set.other)));
-    d.push(Line::styled(
-        format!(
-            "plates to set: near {}, other {}",
-            set.near.dms(0),
-            set.other.dms(0)
-        ),
-        t.dim(),
+    d.push(row(
+        app,
+        "Set to",
+        format!("{} / {}", set.near.dms(0), set.other.dms(0)),
+        String::new(),
     ));
     // the view slopes the two plates level, against the drawing's
     let (vn, vo) = Compound::views_levelled(n.achieved, o.achieved);

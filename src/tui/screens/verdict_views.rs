@@ -16,9 +16,7 @@ pub fn near_verdict(f: &Feature, j: &Judgement) -> Verdict {
 /// The banner: the verdict over both views, naming the views that did not pass.
 pub fn banner(app: &App, f: &Feature, j: &Judgement) -> (String, Style) {
     let t = app.theme;
-    let (ln, lo) = f
-        .compound_angles()
-        .map_or(("A", "B"), Compound::letters);
+    let (ln, lo) = f.compound_angles().map_or(("A", "B"), Compound::letters);
     let near = near_verdict(f, j);
     let other = j.view_b.as_ref().map_or(Verdict::Pass, |v| v.verdict);
     let off: Vec<&str> = [(ln, near), (lo, other)]
@@ -35,12 +33,12 @@ pub fn banner(app: &App, f: &Feature, j: &Judgement) -> (String, Style) {
     };
     match j.verdict {
         Verdict::Pass => ("PASS: both views inside the tolerance".into(), t.good()),
-        Verdict::Fail => (
-            format!("FAIL: {}", which("outside the tolerance")),
-            t.bad(),
-        ),
+        Verdict::Fail => (format!("FAIL: {}", which("outside the tolerance")), t.bad()),
         Verdict::Doubt => (
-            format!("DOUBT: {}; the lead decides", which("inside the doubt band")),
+            format!(
+                "DOUBT: {}; the lead decides",
+                which("inside the doubt band")
+            ),
             t.warn(),
         ),
     }
@@ -100,7 +98,10 @@ pub fn table(app: &App, f: &Feature, a: &Attempt, j: &Judgement, lines: &mut Vec
         ),
         t.dim(),
     ));
-    for (word, corr) in [("near plate", &j.correction), ("other plate", &v.correction)] {
+    for (word, corr) in [
+        ("near plate", &j.correction),
+        ("other plate", &v.correction),
+    ] {
         // a plate whose stack stays as it is needs no line
         if let Some(x) = corr.as_ref().filter(|x| x.delta.nm() != 0) {
             let dir = if x.delta.nm() >= 0 { "raise" } else { "lower" };

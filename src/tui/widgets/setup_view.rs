@@ -278,7 +278,13 @@ mod tests {
         let sh = shapes(&scene);
         let (_, py, pr) = sh.rolls[0];
         let (_, ry, rr) = sh.rolls[1];
-        assert!((py - pr - 0.1).abs() < 1e-9, "the pivot roll sits on its stack");
-        assert!((ry - rr - 0.1436).abs() < 1e-9, "the raised roll sits on its stack");
+        assert!(
+            (py - pr - 0.1).abs() < 1e-9,
+            "the pivot roll sits on its stack"
+        );
+        assert!(
+            (ry - rr - 0.1436).abs() < 1e-9,
+            "the raised roll sits on its stack"
+        );
     }
 }
