@@ -90,7 +90,10 @@ pub(super) fn sweep(s: &Sweep, p: &str, out: &mut Out) {
             if !s.pairs.is_empty() {
                 out.at(&format!("{p}.pairs"), "position/reading pairs are given but the mode is spaced; set `mode: pairs` or list the readings under `readings:`");
             }
+            // a sweep being set up (no readings yet) may still lack its travel or count
+            let started = !s.readings.is_empty();
             match s.travel {
+                None if !started => {}
                 None => out.at(
                     p,
                     "a spaced sweep needs its travel, e.g. `travel: 4.0000 in`",
@@ -102,6 +105,7 @@ pub(super) fn sweep(s: &Sweep, p: &str, out: &mut Out) {
                 _ => {}
             }
             match s.points {
+                None if !started => {}
                 None => out.at(p, "a spaced sweep needs the number of readings, e.g. `points: 5`"),
                 Some(n) if n < 2 => out.at(&format!("{p}.points"), "a sweep needs at least 2 readings, e.g. `points: 5`"),
                 Some(n) if s.readings.len() > n as usize => out.at(&format!("{p}.readings"), format!("{} readings are entered but the sweep has {n} points; raise `points:` or remove readings", s.readings.len())),

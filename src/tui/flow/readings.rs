@@ -277,7 +277,21 @@ fn switch_mode(app: &mut App, s: Sweep) -> Vec<Effect> {
             SweepMode::Pairs => "pairs: give each reading's position from the pivot end",
         },
     );
-    save_sweep(app, Sweep { mode, ..s }, None)
+    // travel and count belong to fixed spacing only; pairs carry their own positions
+    let (travel, points) = match mode {
+        SweepMode::Spaced => (s.travel, s.points),
+        SweepMode::Pairs => (None, None),
+    };
+    save_sweep(
+        app,
+        Sweep {
+            mode,
+            travel,
+            points,
+            ..s
+        },
+        None,
+    )
 }
 
 fn remove_last(app: &mut App, mut s: Sweep) -> Vec<Effect> {
@@ -402,6 +416,17 @@ fn readings_enter(app: &mut App, mut s: Sweep, focus: RField) -> Vec<Effect> {
                         app.say(Level::Warn, "type the position of this reading first");
                         return Vec::new();
                     };
+                    if s.pairs.iter().any(|p| p.position == position) {
+                        app.ui.readings.focus = RField::Position;
+                        app.say(
+                            Level::Warn,
+                            format!(
+                                "a reading at {} is in already; give another position, or remove the last reading (Del)",
+                                position.show(unit)
+                            ),
+                        );
+                        return Vec::new();
+                    }
                     s.pairs.push(Pair {
                         position,
                         reading: r,
