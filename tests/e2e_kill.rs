@@ -6,7 +6,6 @@
 
 use std::path::Path;
 use std::process::Command;
-use std::time::{Duration, Instant};
 use tiltbook::traveller::{self, EventKind, Step};
 use tiltbook::units::Length;
 
@@ -17,106 +16,14 @@ fn have(program: &str, arg: &str) -> bool {
         .is_ok_and(|o| o.status.success())
 }
 
-/// A tmux server of our own (private socket) running one command; killed when dropped.
-struct Session {
-    socket: String,
-}
-
-impl Session {
-    fn tmux(&self, args: &[&str]) -> std::process::Output {
-        Command::new("tmux")
-            .args(["-L", &self.socket])
-            .args(args)
-            .output()
-            .expect("tmux runs")
-    }
-
-    fn start(tag: &str, command: &str) -> Session {
-        let s = Session {
-            socket: format!("tiltbook-e2e-kill-{}-{tag}", std::process::id()),
-        };
-        let out = s.tmux(&[
-            "new-session",
-            "-d",
-            "-s",
-            "main",
-            "-x",
-            "80",
-            "-y",
-            "24",
-            command,
-        ]);
-        assert!(out.status.success(), "tmux new-session: {out:?}");
-        s
-    }
-
-    fn keys(&self, keys: &[&str]) {
-        let mut args = vec!["send-keys", "-t", "main"];
-        args.extend_from_slice(keys);
-        self.tmux(&args);
-        std::thread::sleep(Duration::from_millis(120));
-    }
-
-    fn text(&self, text: &str) {
-        self.tmux(&["send-keys", "-t", "main", "-l", "--", text]);
-        std::thread::sleep(Duration::from_millis(120));
-    }
-
-    fn screen(&self) -> String {
-        String::from_utf8_lossy(&self.tmux(&["capture-pane", "-p", "-t", "main"]).stdout)
-            .into_owned()
-    }
-
-    fn alive(&self) -> bool {
-        self.tmux(&["has-session", "-t", "main"]).status.success()
-    }
-
-    /// Wait until `text` is on screen; panic with the screen if it never comes.
-    fn expect(&self, text: &str) {
-        let end = Instant::now() + Duration::from_secs(10);
-        loop {
-            let s = self.screen();
-            if s.contains(text) {
-                return;
-            }
-            assert!(
-                Instant::now() < end,
-                "expected {text:?} on screen; the screen was:\n{s}"
-            );
-            std::thread::sleep(Duration::from_millis(100));
-        }
-    }
-
-    fn wait_end(&self) {
-        let end = Instant::now() + Duration::from_secs(10);
-        while self.alive() {
-            assert!(
-                Instant::now() < end,
-                "the program did not end; the screen was:\n{}",
-                self.screen()
-            );
-            std::thread::sleep(Duration::from_millis(100));
-        }
-    }
-}
-
-impl Drop for Session {
-    fn drop(&mut self) {
-        let _ = Command::new("tmux")
-            .args(["-L", &self.socket, "kill-server"])
-            .output();
-    }
-}
-
-fn quote(p: &Path) -> String {
-    format!("'{}'", p.display().to_string().replace('\'', "'\\''"))
-}
+mod e2e_support;
+use e2e_support::{Session, quote};
 
 /// `tiltbook open FILE --as KM ARGS…` in a fresh terminal, the data folder and the shop file
 /// given by the environment as the shop floor sets them.
 fn open(tag: &str, dir: &Path, file: &Path, args: &str) -> Session {
     Session::start(
-        tag,
+        &format!("kill-{tag}"),
         &format!(
             "env NO_COLOR=1 TILTBOOK_DATA_DIR={} TILTBOOK_SHOP={} {} open {} --as KM {args}; sleep 0.3",
             quote(&dir.join("data")),
@@ -124,6 +31,8 @@ fn open(tag: &str, dir: &Path, file: &Path, args: &str) -> Session {
             quote(Path::new(env!("CARGO_BIN_EXE_tiltbook"))),
             quote(file)
         ),
+        80,
+        24,
     )
 }
 

@@ -5,116 +5,20 @@
 
 use std::path::{Path, PathBuf};
 use std::process::Command;
-use std::sync::atomic::{AtomicUsize, Ordering};
-use std::time::{Duration, Instant};
 use tiltbook::traveller::{self, FeatureState, Verdict};
 use tiltbook::units::Length;
 
-static NEXT: AtomicUsize = AtomicUsize::new(0);
+mod e2e_support;
+use e2e_support::{Session, quote, tmux_available};
 
-fn tmux_available() -> bool {
-    Command::new("tmux")
-        .arg("-V")
-        .output()
-        .is_ok_and(|o| o.status.success())
+/// The flow steps this test repeats for both features.
+trait Steps {
+    fn to_readings(&self);
+    fn readings(&self, values: &[&str]);
+    fn sign(&self, id: &str);
 }
 
-/// A tmux server of our own (private socket) running one command; killed when dropped.
-struct Session {
-    socket: String,
-}
-
-impl Session {
-    fn tmux(&self, args: &[&str]) -> std::process::Output {
-        Command::new("tmux")
-            .args(["-L", &self.socket])
-            .args(args)
-            .output()
-            .expect("tmux runs")
-    }
-
-    fn start(command: &str) -> Session {
-        let n = NEXT.fetch_add(1, Ordering::SeqCst);
-        let s = Session {
-            socket: format!("tiltbook-e2e-kinds-{}-{n}", std::process::id()),
-        };
-        let out = s.tmux(&[
-            "new-session",
-            "-d",
-            "-s",
-            "main",
-            "-x",
-            "80",
-            "-y",
-            "24",
-            command,
-        ]);
-        assert!(out.status.success(), "tmux new-session: {out:?}");
-        s
-    }
-
-    fn keys(&self, keys: &[&str]) {
-        let mut args = vec!["send-keys", "-t", "main"];
-        args.extend_from_slice(keys);
-        self.tmux(&args);
-        std::thread::sleep(Duration::from_millis(120));
-    }
-
-    fn text(&self, text: &str) {
-        self.tmux(&["send-keys", "-t", "main", "-l", "--", text]);
-        std::thread::sleep(Duration::from_millis(120));
-    }
-
-    fn screen(&self) -> String {
-        String::from_utf8_lossy(&self.tmux(&["capture-pane", "-p", "-t", "main"]).stdout)
-            .into_owned()
-    }
-
-    fn alive(&self) -> bool {
-        self.tmux(&["has-session", "-t", "main"]).status.success()
-    }
-
-    /// Wait until `text` is on screen; panic with the screen if it never comes.
-    fn expect(&self, text: &str) {
-        let end = Instant::now() + Duration::from_secs(10);
-        loop {
-            let s = self.screen();
-            if s.contains(text) {
-                return;
-            }
-            assert!(
-                Instant::now() < end,
-                "expected {text:?} on screen; the screen was:\n{s}"
-            );
-            std::thread::sleep(Duration::from_millis(100));
-        }
-    }
-
-    fn wait_end(&self) {
-        let end = Instant::now() + Duration::from_secs(10);
-        while self.alive() {
-            assert!(
-                Instant::now() < end,
-                "the program did not end; the screen was:\n{}",
-                self.screen()
-            );
-            std::thread::sleep(Duration::from_millis(100));
-        }
-    }
-
-    /// Tick blocks until every stack is wrung, then confirm.
-    fn wring_all(&self) {
-        self.expect("wring block 1");
-        for _ in 0..14 {
-            if self.screen().contains("every block is wrung") {
-                break;
-            }
-            self.keys(&["Space"]);
-        }
-        self.expect("every block is wrung");
-        self.keys(&["Enter"]);
-    }
-
+impl Steps for Session {
     /// The cautions confirmed and the wait skipped: on to the readings.
     fn to_readings(&self) {
         self.expect("clamp the work");
@@ -147,18 +51,6 @@ impl Session {
     }
 }
 
-impl Drop for Session {
-    fn drop(&mut self) {
-        let _ = Command::new("tmux")
-            .args(["-L", &self.socket, "kill-server"])
-            .output();
-    }
-}
-
-fn quote(p: &Path) -> String {
-    format!("'{}'", p.display().to_string().replace('\'', "'\\''"))
-}
-
 fn bin() -> String {
     quote(Path::new(env!("CARGO_BIN_EXE_tiltbook")))
 }
@@ -185,12 +77,17 @@ fn the_taper_and_the_compound_angle_of_the_demo_to_sign_off_then_check_and_revie
     let shop = dir.path().join("shop.yaml");
     std::fs::write(&shop, tiltbook::shop::TEMPLATE).expect("shop file written");
     let data = dir.path().join("data");
-    let s = Session::start(&format!(
-        "env TILTBOOK_DATA_DIR={} NO_COLOR=1 {} demo --as JQ --shop {}; sleep 0.3",
-        quote(&data),
-        bin(),
-        quote(&shop)
-    ));
+    let s = Session::start(
+        "kinds",
+        &format!(
+            "env TILTBOOK_DATA_DIR={} NO_COLOR=1 {} demo --as JQ --shop {}; sleep 0.3",
+            quote(&data),
+            bin(),
+            quote(&shop)
+        ),
+        80,
+        24,
+    );
     s.expect("press Enter to start F1");
 
     // F2, the taper: sine centres first, the half angle is set, the included angle shown
@@ -280,12 +177,17 @@ fn the_taper_and_the_compound_angle_of_the_demo_to_sign_off_then_check_and_revie
     assert_eq!(j.view_b.as_ref().unwrap().verdict, Verdict::Pass);
 
     // the lead's review shows both
-    let l = Session::start(&format!(
-        "env NO_COLOR=1 {} open {} --review --as LV --shop {}; sleep 0.3",
-        bin(),
-        quote(&job),
-        quote(&shop)
-    ));
+    let l = Session::start(
+        "kinds",
+        &format!(
+            "env NO_COLOR=1 {} open {} --review --as LV --shop {}; sleep 0.3",
+            bin(),
+            quote(&job),
+            quote(&shop)
+        ),
+        80,
+        24,
+    );
     l.expect("Review of J-2417");
     l.keys(&["Down"]);
     l.keys(&["Enter"]);

@@ -2,105 +2,12 @@
 //! keys alone, then the saved YAML is read back. Skipped (with a message) without tmux.
 
 use std::path::Path;
-use std::process::Command;
 use std::time::{Duration, Instant};
 use tiltbook::traveller::{self, FeatureState, Verdict};
 use tiltbook::units::Length;
 
-fn tmux_available() -> bool {
-    Command::new("tmux")
-        .arg("-V")
-        .output()
-        .is_ok_and(|o| o.status.success())
-}
-
-/// A tmux server of our own (private socket), killed when dropped.
-struct Session {
-    socket: String,
-    name: String,
-}
-
-impl Session {
-    fn tmux(&self, args: &[&str]) -> std::process::Output {
-        Command::new("tmux")
-            .args(["-L", &self.socket])
-            .args(args)
-            .output()
-            .expect("tmux runs")
-    }
-
-    fn start(command: &str, cols: u16, rows: u16) -> Session {
-        let id = format!("tiltbook-e2e-{}", std::process::id());
-        let s = Session {
-            socket: id.clone(),
-            name: id,
-        };
-        let out = s.tmux(&[
-            "new-session",
-            "-d",
-            "-s",
-            &s.name,
-            "-x",
-            &cols.to_string(),
-            "-y",
-            &rows.to_string(),
-            command,
-        ]);
-        assert!(out.status.success(), "tmux new-session: {out:?}");
-        s
-    }
-
-    fn keys(&self, keys: &[&str]) {
-        let mut args = vec!["send-keys", "-t", &self.name];
-        args.extend_from_slice(keys);
-        self.tmux(&args);
-        std::thread::sleep(Duration::from_millis(120));
-    }
-
-    fn text(&self, text: &str) {
-        self.tmux(&["send-keys", "-t", &self.name, "-l", "--", text]);
-        std::thread::sleep(Duration::from_millis(120));
-    }
-
-    fn screen(&self) -> String {
-        String::from_utf8_lossy(&self.tmux(&["capture-pane", "-p", "-t", &self.name]).stdout)
-            .into_owned()
-    }
-
-    fn alive(&self) -> bool {
-        self.tmux(&["has-session", "-t", &self.name])
-            .status
-            .success()
-    }
-
-    /// Wait until `text` is on screen; panic with the screen if it never comes.
-    fn expect(&self, text: &str) {
-        let end = Instant::now() + Duration::from_secs(10);
-        loop {
-            let s = self.screen();
-            if s.contains(text) {
-                return;
-            }
-            assert!(
-                Instant::now() < end,
-                "expected {text:?} on screen; the screen was:\n{s}"
-            );
-            std::thread::sleep(Duration::from_millis(100));
-        }
-    }
-}
-
-impl Drop for Session {
-    fn drop(&mut self) {
-        let _ = Command::new("tmux")
-            .args(["-L", &self.socket, "kill-server"])
-            .output();
-    }
-}
-
-fn quote(p: &Path) -> String {
-    format!("'{}'", p.display().to_string().replace('\'', "'\\''"))
-}
+mod e2e_support;
+use e2e_support::{Session, quote, tmux_available};
 
 #[test]
 fn one_feature_of_the_demo_from_fixture_to_sign_off() {
@@ -120,7 +27,7 @@ fn one_feature_of_the_demo_from_fixture_to_sign_off() {
         quote(Path::new(env!("CARGO_BIN_EXE_tiltbook"))),
         quote(&shop)
     );
-    let s = Session::start(&cmd, 80, 24);
+    let s = Session::start("tui", &cmd, 80, 24);
     s.expect("press Enter to start F1");
     assert!(!s.screen().contains("needs at least"));
     s.keys(&["Enter"]);

@@ -8,129 +8,11 @@
 
 use std::path::{Path, PathBuf};
 use std::process::Command;
-use std::sync::atomic::{AtomicUsize, Ordering};
-use std::time::{Duration, Instant};
 use tiltbook::traveller::digest::withdrawn_by;
 use tiltbook::traveller::{self, EventKind, FeatureState, Role, Scope};
 
-fn tmux_available() -> bool {
-    Command::new("tmux")
-        .arg("-V")
-        .output()
-        .is_ok_and(|o| o.status.success())
-}
-
-static NEXT: AtomicUsize = AtomicUsize::new(0);
-
-/// A tmux server of our own (private socket) running one command; killed when dropped.
-struct Session {
-    socket: String,
-}
-
-impl Session {
-    fn tmux(&self, args: &[&str]) -> std::process::Output {
-        Command::new("tmux")
-            .args(["-L", &self.socket])
-            .args(args)
-            .output()
-            .expect("tmux runs")
-    }
-
-    fn start(command: &str) -> Session {
-        let n = NEXT.fetch_add(1, Ordering::SeqCst);
-        let s = Session {
-            socket: format!("tiltbook-e2e2-{}-{n}", std::process::id()),
-        };
-        let out = s.tmux(&[
-            "new-session",
-            "-d",
-            "-s",
-            "main",
-            "-x",
-            "80",
-            "-y",
-            "24",
-            command,
-        ]);
-        assert!(out.status.success(), "tmux new-session: {out:?}");
-        s
-    }
-
-    fn keys(&self, keys: &[&str]) {
-        let mut args = vec!["send-keys", "-t", "main"];
-        args.extend_from_slice(keys);
-        self.tmux(&args);
-        std::thread::sleep(Duration::from_millis(120));
-    }
-
-    fn text(&self, text: &str) {
-        self.tmux(&["send-keys", "-t", "main", "-l", "--", text]);
-        std::thread::sleep(Duration::from_millis(120));
-    }
-
-    fn screen(&self) -> String {
-        String::from_utf8_lossy(&self.tmux(&["capture-pane", "-p", "-t", "main"]).stdout)
-            .into_owned()
-    }
-
-    fn alive(&self) -> bool {
-        self.tmux(&["has-session", "-t", "main"]).status.success()
-    }
-
-    /// Wait until `text` is on screen; panic with the screen if it never comes.
-    fn expect(&self, text: &str) {
-        let end = Instant::now() + Duration::from_secs(10);
-        loop {
-            let s = self.screen();
-            if s.contains(text) {
-                return;
-            }
-            assert!(
-                Instant::now() < end,
-                "expected {text:?} on screen; the screen was:\n{s}"
-            );
-            std::thread::sleep(Duration::from_millis(100));
-        }
-    }
-
-    /// Wait for the program to end (the session closes with it).
-    fn wait_end(&self) {
-        let end = Instant::now() + Duration::from_secs(10);
-        while self.alive() {
-            assert!(
-                Instant::now() < end,
-                "the program did not end; the screen was:\n{}",
-                self.screen()
-            );
-            std::thread::sleep(Duration::from_millis(100));
-        }
-    }
-
-    /// Tick blocks until the stack is wrung, then confirm it.
-    fn wring_all(&self) {
-        self.expect("wring block 1");
-        for _ in 0..10 {
-            if self.screen().contains("every block is wrung") {
-                break;
-            }
-            self.keys(&["Space"]);
-        }
-        self.expect("every block is wrung");
-        self.keys(&["Enter"]);
-    }
-}
-
-impl Drop for Session {
-    fn drop(&mut self) {
-        let _ = Command::new("tmux")
-            .args(["-L", &self.socket, "kill-server"])
-            .output();
-    }
-}
-
-fn quote(p: &Path) -> String {
-    format!("'{}'", p.display().to_string().replace('\'', "'\\''"))
-}
+mod e2e_support;
+use e2e_support::{Session, quote, tmux_available};
 
 /// A two-feature plan of the invented job (F1 and F3 of sample-jobs/ds-204-plan.yaml).
 const PLAN: &str = "schema: 1
@@ -170,12 +52,17 @@ fn job() -> Job {
 
 /// `tiltbook open FILE ARGS…` in a fresh terminal.
 fn open(j: &Job, args: &str) -> Session {
-    Session::start(&format!(
-        "env NO_COLOR=1 {} open {} --shop {} {args}; sleep 0.3",
-        quote(Path::new(env!("CARGO_BIN_EXE_tiltbook"))),
-        quote(&j.file),
-        quote(&j.shop)
-    ))
+    Session::start(
+        "shifts",
+        &format!(
+            "env NO_COLOR=1 {} open {} --shop {} {args}; sleep 0.3",
+            quote(Path::new(env!("CARGO_BIN_EXE_tiltbook"))),
+            quote(&j.file),
+            quote(&j.shop)
+        ),
+        80,
+        24,
+    )
 }
 
 fn check(j: &Job) -> (i32, String) {
