@@ -70,8 +70,17 @@ pub fn write_atomic(path: &Path, bytes: &[u8]) -> io::Result<()> {
     sync_folder(&dir)
 }
 
-/// Copy `from` to `to` through a temporary file, so `to` is always whole.
+/// Make `to` a whole copy of `from`: a second name for the same file where the file system
+/// allows it (the old version was made durable when it was saved), else a copy through a
+/// temporary file. Either way `to` is replaced in one rename, so it is always whole.
 fn copy_durably(from: &Path, to: &Path, dir: &Path) -> io::Result<()> {
+    let link = tempfile::Builder::new()
+        .prefix(".bak.")
+        .suffix(".tmp")
+        .make_in(dir, |p| fs::hard_link(from, p));
+    if let Ok(link) = link {
+        return link.persist(to).map(|_| ()).map_err(|e| e.error);
+    }
     let old = fs::read(from)?;
     let mut tmp = tempfile::Builder::new()
         .prefix(".bak.")

@@ -5,6 +5,7 @@
 //! comments and block scalars. Anything it cannot follow is located at its nearest parent.
 
 use std::collections::HashMap;
+use std::sync::{Arc, OnceLock};
 
 /// A line and column, both counted from 1.
 #[derive(Debug, Clone, Copy, PartialEq, Eq, PartialOrd, Ord, Default)]
@@ -14,9 +15,13 @@ pub struct Pos {
 }
 
 /// Positions of every key path found in one YAML text.
+///
+/// The text is scanned the first time a position is asked for, so a file with no problems
+/// (the usual case) is never scanned.
 #[derive(Debug, Clone, Default)]
 pub struct Locator {
-    map: HashMap<String, Pos>,
+    text: Arc<str>,
+    map: OnceLock<HashMap<String, Pos>>,
 }
 
 struct Frame {
@@ -40,104 +45,118 @@ impl Frame {
 }
 
 impl Locator {
-    /// Scan `text`.
+    /// A locator for `text` (kept; scanned when first needed).
     pub fn new(text: &str) -> Self {
-        let mut map = HashMap::new();
-        let mut stack: Vec<Frame> = vec![Frame {
-            col: None,
-            item: false,
-            path: String::new(),
-            items: 0,
-        }];
-        let mut block_scalar: Option<usize> = None;
-        for (ln, raw) in text.lines().enumerate() {
-            let line_no = ln + 1;
-            let indent = raw.len() - raw.trim_start_matches(' ').len();
-            let body = raw[indent..].trim_end();
-            if let Some(bi) = block_scalar {
-                if body.is_empty() || indent > bi {
-                    continue;
-                }
-                block_scalar = None;
-            }
-            if body.is_empty() || body.starts_with('#') || body == "---" || body == "..." {
+        Locator {
+            text: Arc::from(text),
+            map: OnceLock::new(),
+        }
+    }
+
+    fn map(&self) -> &HashMap<String, Pos> {
+        self.map.get_or_init(|| scan(&self.text))
+    }
+}
+
+/// Every key path of `text` and where it is written.
+fn scan(text: &str) -> HashMap<String, Pos> {
+    let mut map = HashMap::new();
+    let mut stack: Vec<Frame> = vec![Frame {
+        col: None,
+        item: false,
+        path: String::new(),
+        items: 0,
+    }];
+    let mut block_scalar: Option<usize> = None;
+    for (ln, raw) in text.lines().enumerate() {
+        let line_no = ln + 1;
+        let indent = raw.len() - raw.trim_start_matches(' ').len();
+        let body = raw[indent..].trim_end();
+        if let Some(bi) = block_scalar {
+            if body.is_empty() || indent > bi {
                 continue;
             }
-            let dash = body == "-" || body.starts_with("- ");
-            while stack.len() > 1 && !stack.last().is_some_and(|f| f.holds(indent, dash)) {
-                stack.pop();
+            block_scalar = None;
+        }
+        if body.is_empty() || body.starts_with('#') || body == "---" || body == "..." {
+            continue;
+        }
+        let dash = body == "-" || body.starts_with("- ");
+        while stack.len() > 1 && !stack.last().is_some_and(|f| f.holds(indent, dash)) {
+            stack.pop();
+        }
+        let mut col = indent;
+        let mut rest = body;
+        while rest == "-" || rest.starts_with("- ") {
+            let path = match stack.last_mut() {
+                Some(f) => {
+                    let i = f.items;
+                    f.items += 1;
+                    format!("{}[{i}]", f.path)
+                }
+                None => String::new(),
+            };
+            map.entry(path.clone()).or_insert(Pos {
+                line: line_no,
+                col: col + 1,
+            });
+            stack.push(Frame {
+                col: Some(col),
+                item: true,
+                path,
+                items: 0,
+            });
+            let after = rest[1..].trim_start_matches(' ');
+            col += rest.len() - after.len();
+            rest = after;
+        }
+        if rest.is_empty() {
+            continue;
+        }
+        let parent = stack.last().map(|f| f.path.clone()).unwrap_or_default();
+        if let Some((key, value, value_col)) = split_key(rest) {
+            let path = join(&parent, &key);
+            map.entry(path.clone()).or_insert(Pos {
+                line: line_no,
+                col: col + 1,
+            });
+            let lead = value.len() - value.trim_start().len();
+            let v = value.trim();
+            if v.starts_with('|') || v.starts_with('>') {
+                block_scalar = Some(col);
+            } else if v.starts_with('{') || v.starts_with('[') {
+                flow(&mut map, &path, v, line_no, col + value_col + lead);
             }
-            let mut col = indent;
-            let mut rest = body;
-            while rest == "-" || rest.starts_with("- ") {
-                let path = match stack.last_mut() {
-                    Some(f) => {
-                        let i = f.items;
-                        f.items += 1;
-                        format!("{}[{i}]", f.path)
-                    }
-                    None => String::new(),
-                };
-                map.entry(path.clone()).or_insert(Pos {
-                    line: line_no,
-                    col: col + 1,
-                });
+            if v.is_empty() || (v.starts_with('&') && !v.contains(' ')) {
                 stack.push(Frame {
                     col: Some(col),
-                    item: true,
+                    item: false,
                     path,
                     items: 0,
                 });
-                let after = rest[1..].trim_start_matches(' ');
-                col += rest.len() - after.len();
-                rest = after;
             }
-            if rest.is_empty() {
-                continue;
-            }
-            let parent = stack.last().map(|f| f.path.clone()).unwrap_or_default();
-            if let Some((key, value, value_col)) = split_key(rest) {
-                let path = join(&parent, &key);
-                map.entry(path.clone()).or_insert(Pos {
-                    line: line_no,
-                    col: col + 1,
-                });
-                let lead = value.len() - value.trim_start().len();
-                let v = value.trim();
-                if v.starts_with('|') || v.starts_with('>') {
-                    block_scalar = Some(col);
-                } else if v.starts_with('{') || v.starts_with('[') {
-                    flow(&mut map, &path, v, line_no, col + value_col + lead);
-                }
-                if v.is_empty() || (v.starts_with('&') && !v.contains(' ')) {
-                    stack.push(Frame {
-                        col: Some(col),
-                        item: false,
-                        path,
-                        items: 0,
-                    });
-                }
-            } else if rest.starts_with('{') || rest.starts_with('[') {
-                flow(&mut map, &parent, rest, line_no, col);
-            }
+        } else if rest.starts_with('{') || rest.starts_with('[') {
+            flow(&mut map, &parent, rest, line_no, col);
         }
-        // columns were counted in bytes; people count characters (`±`, `°` are one each)
-        let lines: Vec<&str> = text.lines().collect();
-        for pos in map.values_mut() {
-            if let Some(l) = lines.get(pos.line - 1)
-                && let Some(before) = l.get(..pos.col - 1)
-            {
-                pos.col = before.chars().count() + 1;
-            }
-        }
-        Locator { map }
     }
+    // columns were counted in bytes; people count characters (`±`, `°` are one each)
+    let lines: Vec<&str> = text.lines().collect();
+    for pos in map.values_mut() {
+        if let Some(l) = lines.get(pos.line - 1)
+            && let Some(before) = l.get(..pos.col - 1)
+        {
+            pos.col = before.chars().count() + 1;
+        }
+    }
+    map
+}
 
+impl Locator {
     /// The position of `path`, or of its nearest parent that was found, or 1:1.
     pub fn find(&self, path: &str) -> Pos {
         let mut p = path.to_string();
         loop {
-            if let Some(pos) = self.map.get(&p) {
+            if let Some(pos) = self.map().get(&p) {
                 return *pos;
             }
             match p.rfind(['.', '[']) {
@@ -149,7 +168,7 @@ impl Locator {
 
     /// The position of `path` only when it is written in the file.
     pub fn exact(&self, path: &str) -> Option<Pos> {
-        self.map.get(path).copied()
+        self.map().get(path).copied()
     }
 }
 

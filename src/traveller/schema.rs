@@ -75,6 +75,17 @@ pub struct Loaded {
 pub fn parse(text: &str) -> Result<Loaded, LoadError> {
     guard::check(text)?;
     let locator = Locator::new(text);
+    // the usual case, a current file that reads cleanly, is read once; anything else takes
+    // the slower road below, which finds the version first and explains what is wrong
+    if let Ok(traveller) = serde_yaml::from_str::<Traveller>(text)
+        && traveller.schema == SCHEMA_VERSION
+    {
+        return Ok(Loaded {
+            traveller,
+            upgraded_from: None,
+            locator,
+        });
+    }
     let value: Value = serde_yaml::from_str(text).map_err(|e| {
         let (line, col) = location(&e);
         LoadError::Syntax {
@@ -156,6 +167,9 @@ pub fn parse(text: &str) -> Result<Loaded, LoadError> {
 
 /// Write a traveller as YAML (always the current schema).
 pub fn to_yaml(t: &Traveller) -> Result<String, serde_yaml::Error> {
+    if t.schema == SCHEMA_VERSION {
+        return serde_yaml::to_string(t);
+    }
     let mut t = t.clone();
     t.schema = SCHEMA_VERSION;
     serde_yaml::to_string(&t)

@@ -59,8 +59,8 @@ pub(super) fn check(text: &str) -> Result<(), LoadError> {
             ),
         });
     }
-    // no anchor, no alias to expand: a file without `&` cannot blow up
-    if !text.contains('&') {
+    // nothing to expand: a file with no alias cannot blow up
+    if !might_have_alias(text) {
         return Ok(());
     }
     let budget = text.len() + ALIAS_ALLOWANCE;
@@ -78,6 +78,27 @@ pub(super) fn check(text: &str) -> Result<(), LoadError> {
     }
     // any other error is reported, with its place, by the ordinary reading
     Ok(())
+}
+
+/// Could `text` hold an alias (`*name`)? A `*` that starts a value (after a space, a line
+/// break, `[`, `{`, `,` or `:`) and is followed by a name character. Erring towards yes is
+/// safe: it only means the aliases are counted.
+fn might_have_alias(text: &str) -> bool {
+    let b = text.as_bytes();
+    b.iter().enumerate().any(|(i, &c)| {
+        c == b'*'
+            && (i == 0
+                || matches!(
+                    b[i - 1],
+                    b' ' | b'\t' | b'\n' | b'\r' | b'[' | b'{' | b',' | b':'
+                ))
+            && b.get(i + 1).is_some_and(|n| {
+                !matches!(
+                    n,
+                    b' ' | b'\t' | b'\n' | b'\r' | b',' | b'[' | b']' | b'{' | b'}'
+                )
+            })
+    })
 }
 
 /// A clearer message for the YAML reader's own limits, when one was hit.
@@ -242,5 +263,40 @@ impl<'de> Visitor<'de> for Count<'_> {
         self.tick()?;
         let ((), variant) = data.variant_seed(self)?;
         variant.newtype_variant_seed(self)
+    }
+}
+
+#[cfg(test)]
+mod tests {
+    use super::might_have_alias;
+
+    // YAML 1.2 §6.9.2 / §7.1: an alias node is `*` followed by an anchor name, where a node may
+    // begin (after white space or a flow indicator).
+    #[test]
+    fn sees_every_place_an_alias_can_start() {
+        for yes in [
+            "a: *x",
+            "- *x",
+            "[*x, *y]",
+            "{a: *x}",
+            "{\"a\":*x}",
+            "*x: 1",
+            "a:\n  *x",
+        ] {
+            assert!(might_have_alias(yes), "{yes}");
+        }
+    }
+
+    #[test]
+    fn ignores_stars_inside_words_and_alone() {
+        for no in [
+            "note: 2*3 blocks",
+            "note: a * b",
+            "note: R&D * end",
+            "a: b",
+            "note: *",
+        ] {
+            assert!(!might_have_alias(no), "{no}");
+        }
     }
 }
