@@ -40,6 +40,8 @@ pub enum PromptKind {
     Swap(usize),
     /// The note that goes with a nonconforming feature.
     Nonconforming,
+    /// Why a fixture or set now out of date is carried into a new attempt.
+    CarryReason,
     /// A change that clears later work of the attempt: yes or no.
     Redo(Redo),
     /// The optional note for the next shift, asked on quitting with work unfinished.

@@ -331,6 +331,9 @@ fn prompt_key(app: &mut App, input: Input) -> Vec<Effect> {
                 PromptKind::Nonconforming => {
                     verdict::answer_nonconforming(app, text.unwrap_or_default())
                 }
+                PromptKind::CarryReason => {
+                    verdict::answer_carry_reason(app, text.unwrap_or_default())
+                }
                 PromptKind::Handover => Ok(shift::answer_handover(app, text.unwrap_or_default())),
                 PromptKind::LeadSign(target) => review::answer_sign(app, *target),
                 PromptKind::Return(target) => {

@@ -7,7 +7,7 @@ use super::super::keymap::{Action, Input};
 use super::super::rank::{RankFor, likely_set, list_sets, rank_fixtures, set_grade};
 use super::super::update::{enter_step, record, refuse_read_only};
 use super::{height_step, here, move_sel, setting};
-use crate::traveller::{Choice, EventKind, Stamp, Step};
+use crate::traveller::{Choice, EventKind, FeatureState, Stamp, Step};
 
 // ---------------------------------------------------------------- fixture
 
@@ -250,6 +250,25 @@ fn choose_set(app: &mut App, index: usize, reason: String) -> Vec<Effect> {
         return Vec::new();
     };
     if chosen_id(app, false).as_deref() == Some(s.snap.id.as_str()) {
+        // kept through a change of fixture: confirming it again is logged, so the record
+        // shows the set chosen for this fixture before the stack is built on it
+        if !app.read_only
+            && app
+                .feature()
+                .is_some_and(|f| f.state == FeatureState::FixtureChosen)
+        {
+            if let Some(a) = app.attempt_mut() {
+                a.step = Step::Stack;
+            }
+            record(
+                app,
+                EventKind::SetChosen,
+                format!("{} kept after the change of fixture", s.snap.id),
+            );
+            let mut e = vec![Effect::Save];
+            e.extend(enter_step(app, here(app), Step::Stack));
+            return e;
+        }
         return enter_step(app, here(app), Step::Stack);
     }
     if refuse_read_only(app) {

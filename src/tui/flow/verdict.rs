@@ -102,15 +102,69 @@ pub fn verdict_key(app: &mut App, input: Input) -> Vec<Effect> {
     }
 }
 
+/// The fixture and block set the last attempt used that are past their calibration date on
+/// `today` and were chosen without a reason: carried into a new attempt, each needs one.
+fn overdue_carried(app: &App, today: jiff::civil::Date) -> Vec<String> {
+    let Some(a) = app.attempt() else {
+        return Vec::new();
+    };
+    let fixture = a.fixture.as_ref().and_then(|c| {
+        let due = app.doc.fixture(&c.id)?.due?;
+        (today > due && c.reason.trim().is_empty()).then(|| format!("fixture {} (due {due})", c.id))
+    });
+    let set = a.block_set.as_ref().and_then(|c| {
+        let due = app.doc.block_set(&c.id)?.due?;
+        (today > due && c.reason.trim().is_empty())
+            .then(|| format!("block set {} (due {due})", c.id))
+    });
+    fixture.into_iter().chain(set).collect()
+}
+
 fn new_attempt(app: &mut App) -> Vec<Effect> {
     if refuse_read_only(app) {
         return Vec::new();
     }
+    let overdue = overdue_carried(app, Stamp::now().date());
+    if overdue.is_empty() {
+        return start_attempt(app, String::new());
+    }
+    app.prompt = Some(Prompt {
+        kind: PromptKind::CarryReason,
+        title: format!("Calibration now out of date: {}", overdue.join(", ")),
+        hint: "type why it is used for the new attempt anyway (e.g. lead approved, recheck booked), then Enter. Esc: stay here; to use another, start the attempt and go back to the fixture or block set"
+            .into(),
+        field: Some(Field::new(120)),
+        error: None,
+        carry: String::new(),
+    });
+    Vec::new()
+}
+
+/// The answer to "why is the out-of-date fixture or set used again": start the attempt.
+pub fn answer_carry_reason(app: &mut App, reason: String) -> Result<Vec<Effect>, String> {
+    if reason.chars().count() < 3 {
+        return Err("a reason is needed (a few words), e.g. lead approved, recheck booked".into());
+    }
+    Ok(start_attempt(app, reason))
+}
+
+/// Start a new attempt with the last one's fixture and set; `reason` goes with any of them now
+/// out of date.
+fn start_attempt(app: &mut App, reason: String) -> Vec<Effect> {
     let Some((i, _)) = app.flow() else {
         return Vec::new();
     };
     let by = app.operator.clone();
     let at = Stamp::now();
+    let overdue = |due: Option<jiff::civil::Date>| due.is_some_and(|d| at.date() > d);
+    let fixture_due = app
+        .attempt()
+        .and_then(|a| a.fixture.as_ref())
+        .and_then(|c| app.doc.fixture(&c.id).map(|x| x.due));
+    let set_due = app
+        .attempt()
+        .and_then(|a| a.block_set.as_ref())
+        .and_then(|c| app.doc.block_set(&c.id).map(|x| x.due));
     let Some(f) = app.doc.features.get_mut(i) else {
         return Vec::new();
     };
@@ -118,16 +172,21 @@ fn new_attempt(app: &mut App) -> Vec<Effect> {
     if let Some(a) = f.current_attempt_mut() {
         a.step = Step::Done;
     }
-    let carry = |c: Option<Choice>| {
+    let carry = |c: Option<Choice>, due: Option<Option<jiff::civil::Date>>| {
         c.map(|c| Choice {
             by: by.clone(),
             at,
+            reason: if c.reason.trim().is_empty() && overdue(due.flatten()) {
+                reason.clone()
+            } else {
+                c.reason
+            },
             ..c
         })
     };
     let a = f.start_attempt(&by, at);
-    a.fixture = carry(prev.fixture.clone());
-    a.block_set = carry(prev.block_set.clone());
+    a.fixture = carry(prev.fixture.clone(), fixture_due);
+    a.block_set = carry(prev.block_set.clone(), set_due);
     a.step = Step::Stack;
     let number = a.number;
     let id = f.id.clone();
