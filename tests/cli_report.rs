@@ -83,3 +83,21 @@ fn a_broken_or_missing_file_exits_2() {
     assert_eq!(out.status.code(), Some(2));
     assert!(String::from_utf8_lossy(&out.stderr).contains("cannot read no-such.yaml"));
 }
+
+#[test]
+fn a_file_over_the_size_limit_is_refused_before_it_is_read() {
+    // 16 MiB is tiltbook's own limit for a traveller (docs/traveller-format.md); a sparse file
+    // one byte over it holds no data, so nothing is read if the size is checked first
+    let dir = tempfile::tempdir().unwrap();
+    let big = dir.path().join("huge.yaml");
+    let f = std::fs::File::create(&big).unwrap();
+    f.set_len(tiltbook::traveller::schema::MAX_BYTES + 1)
+        .unwrap();
+    let out = bin().arg("report").arg(&big).output().unwrap();
+    assert_eq!(out.status.code(), Some(2));
+    let se = String::from_utf8_lossy(&out.stderr);
+    assert!(
+        se.contains("more than the 16.8 MB") && se.contains("huge.yaml"),
+        "{se}"
+    );
+}

@@ -159,6 +159,16 @@ mod unix {
                 "unexpected file {name}"
             );
         }
+        // the next opener (holding the lock, so no save of this job is under way) clears them
+        let _ = fs::remove_file(lock_path(&path));
+        let (store, _) = Store::open(&path, "KM").unwrap();
+        let mut left: Vec<String> = fs::read_dir(dir.path())
+            .unwrap()
+            .map(|e| e.unwrap().file_name().to_string_lossy().into_owned())
+            .collect();
+        left.sort();
+        assert_eq!(left, ["j.yaml", "j.yaml.bak", "j.yaml.lock"]);
+        store.close();
         eprintln!(
             "{KILLS} kills in {:.1} s; last version {last}; {advanced} rounds saved",
             started.elapsed().as_secs_f64()

@@ -35,8 +35,13 @@ pub fn run(args: &ReportArgs, out: &mut dyn Write) -> Result<ExitCode, CliError>
         (None, None) => report::Format::Text,
     };
     let name = args.file.display().to_string();
-    let text = std::fs::read_to_string(&args.file)
+    let bytes = crate::store::read_capped(&args.file)
         .map_err(|e| CliError::Io(format!("cannot read {name}: {e}; check the path")))?;
+    let text = String::from_utf8(bytes).map_err(|_| {
+        CliError::Io(format!(
+            "cannot read {name}: the file is not UTF-8 text; save it as UTF-8"
+        ))
+    })?;
     let loaded = schema::parse(&text).map_err(|e| {
         let p = e.pos();
         usage(format!(

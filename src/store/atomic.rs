@@ -41,6 +41,34 @@ pub fn sync_folder(dir: &Path) -> io::Result<()> {
     }
 }
 
+/// Random characters in a temporary file's name: `.NAME.` + these + `.tmp`.
+const RAND: usize = 6;
+
+/// Is `file` one of the temporary files a save of the traveller named `name` makes?
+fn is_leftover(file: &str, name: &str) -> bool {
+    file.strip_prefix(&format!(".{name}."))
+        .and_then(|r| r.strip_suffix(".tmp"))
+        .is_some_and(|r| r.len() == RAND && r.bytes().all(|b| b.is_ascii_alphanumeric()))
+}
+
+/// Remove the temporary files a save of `path` left behind when it was stopped (a killed
+/// process, a power cut); they never hold the only copy of anything. Call it only while holding
+/// the traveller's lock, so no save of it is under way. Returns how many were removed.
+pub fn remove_leftovers(path: &Path) -> usize {
+    let Some(name) = path.file_name().and_then(|n| n.to_str()) else {
+        return 0;
+    };
+    let Ok(entries) = fs::read_dir(folder_of(path)) else {
+        return 0;
+    };
+    entries
+        .flatten()
+        .filter(|e| e.file_name().to_str().is_some_and(|f| is_leftover(f, name)))
+        .filter(|e| e.file_type().is_ok_and(|t| t.is_file()))
+        .filter(|e| fs::remove_file(e.path()).is_ok())
+        .count()
+}
+
 /// Write `bytes` to `path` atomically, keeping the previous file (if any) as `NAME.bak`.
 ///
 /// On any error the file at `path` is left as it was and the temporary file is removed.
@@ -52,6 +80,7 @@ pub fn write_atomic(path: &Path, bytes: &[u8]) -> io::Result<()> {
         .unwrap_or_else(|| "traveller".into());
     let mut tmp = tempfile::Builder::new()
         .prefix(&format!(".{name}."))
+        .rand_bytes(RAND)
         .suffix(".tmp")
         .tempfile_in(&dir)?;
     tmp.write_all(bytes)?;
@@ -64,7 +93,7 @@ pub fn write_atomic(path: &Path, bytes: &[u8]) -> io::Result<()> {
         )));
     }
     if path.exists() {
-        copy_durably(path, &backup_path(path), &dir)?;
+        copy_durably(path, &backup_path(path), &dir, &name)?;
     }
     tmp.persist(path).map_err(|e| e.error)?;
     sync_folder(&dir)
@@ -73,9 +102,10 @@ pub fn write_atomic(path: &Path, bytes: &[u8]) -> io::Result<()> {
 /// Make `to` a whole copy of `from`: a second name for the same file where the file system
 /// allows it (the old version was made durable when it was saved), else a copy through a
 /// temporary file. Either way `to` is replaced in one rename, so it is always whole.
-fn copy_durably(from: &Path, to: &Path, dir: &Path) -> io::Result<()> {
+fn copy_durably(from: &Path, to: &Path, dir: &Path, name: &str) -> io::Result<()> {
     let link = tempfile::Builder::new()
-        .prefix(".bak.")
+        .prefix(&format!(".{name}."))
+        .rand_bytes(RAND)
         .suffix(".tmp")
         .make_in(dir, |p| fs::hard_link(from, p));
     if let Ok(link) = link {
@@ -83,7 +113,8 @@ fn copy_durably(from: &Path, to: &Path, dir: &Path) -> io::Result<()> {
     }
     let old = fs::read(from)?;
     let mut tmp = tempfile::Builder::new()
-        .prefix(".bak.")
+        .prefix(&format!(".{name}."))
+        .rand_bytes(RAND)
         .suffix(".tmp")
         .tempfile_in(dir)?;
     tmp.write_all(&old)?;
@@ -120,5 +151,40 @@ mod tests {
         fs::create_dir(&p).unwrap();
         assert!(write_atomic(&p, b"x").is_err());
         assert_eq!(fs::read_dir(dir.path()).unwrap().count(), 1);
+    }
+
+    #[test]
+    fn leftovers_of_this_traveller_are_removed_and_nothing_else() {
+        let dir = tempfile::tempdir().unwrap();
+        let p = dir.path().join("job.yaml");
+        write_atomic(&p, b"one").unwrap();
+        write_atomic(&p, b"two").unwrap();
+        let keep = [
+            "job.yaml",
+            "job.yaml.bak",
+            "other.yaml",
+            ".other.yaml.a1B2c3.tmp", // another traveller's save
+            ".job.yaml.x.a1B2c3.tmp", // a traveller named job.yaml.x
+            ".job.yaml.a1B2c.tmp",    // not our pattern
+            "notes.tmp",
+        ];
+        let gone = [".job.yaml.a1B2c3.tmp", ".job.yaml.ZZZZZZ.tmp"];
+        for n in keep
+            .iter()
+            .chain(&gone)
+            .filter(|n| !n.starts_with("job.yaml"))
+        {
+            fs::write(dir.path().join(n), b"x").unwrap();
+        }
+        assert_eq!(remove_leftovers(&p), 2);
+        let mut names: Vec<_> = fs::read_dir(dir.path())
+            .unwrap()
+            .map(|e| e.unwrap().file_name().to_string_lossy().into_owned())
+            .collect();
+        names.sort();
+        let mut want: Vec<_> = keep.iter().map(|s| s.to_string()).collect();
+        want.sort();
+        assert_eq!(names, want);
+        assert_eq!(fs::read(&p).unwrap(), b"two");
     }
 }

@@ -172,6 +172,7 @@ impl Store {
     /// when someone else has it open.
     pub fn open(path: &Path, who: &str) -> Result<(Store, Loaded), StoreError> {
         let lock = Lock::acquire(path, who).map_err(|f| lock_error(path, f))?;
+        atomic::remove_leftovers(path);
         let loaded = load(path)?;
         Ok((
             Store {
@@ -202,6 +203,7 @@ impl Store {
         holder: &LockInfo,
     ) -> Result<(Store, Loaded), StoreError> {
         let lock = Lock::take_over(path, who, holder).map_err(|f| lock_error(path, f))?;
+        atomic::remove_leftovers(path);
         let mut loaded = load(path)?;
         let mut store = Store {
             path: path.to_path_buf(),

@@ -2,6 +2,7 @@
 //! an estimate of U, warnings, and whether its calibration is out of date.
 
 use super::shop_view::{SetView, ShopView};
+use crate::blocks::Solver;
 use crate::geometry::{SineFixture, plan};
 use crate::traveller::{BlockSetSnapshot, FeatureKind, FixtureKind, FixtureSnapshot};
 use crate::uncertainty::{Contribution, DEFAULT_JOINT_NM, Grade, Setup, budget};
@@ -42,6 +43,15 @@ pub struct FixtureOption {
     /// Made for this kind of feature (sine centres for tapers, a compound plate for compound
     /// angles, a bar, plate or vise for a plain angle).
     pub suitable: bool,
+    /// The likely block set makes the stack height in one stack (true when not known).
+    pub buildable: bool,
+}
+
+/// The block set a ranking checks heights against: its id and its solver.
+#[derive(Clone, Copy)]
+pub struct LikelySet<'a> {
+    pub id: &'a str,
+    pub solver: &'a Solver,
 }
 
 /// Is a fixture of `fixture` kind made for a feature of `feature` kind? And if not, why.
@@ -73,27 +83,36 @@ pub struct RankFor {
 }
 
 /// Rank the shop's fixtures for `r.setting` on a feature of `r.kind`, heights rounded to
-/// `r.step`: reachable first, then made for the kind, then in date, then the smallest
-/// |error| + U.
-pub fn rank_fixtures(shop: &ShopView, r: &RankFor) -> Vec<FixtureOption> {
+/// `r.step`: reachable first, then made for the kind, then buildable in one stack from the
+/// likely set `set` (when given), then in date, then the smallest |error| + U.
+pub fn rank_fixtures(
+    shop: &ShopView,
+    r: &RankFor,
+    set: Option<LikelySet<'_>>,
+) -> Vec<FixtureOption> {
     let mut v: Vec<FixtureOption> = shop
         .fixtures
         .iter()
         .enumerate()
-        .map(|(index, f)| offer(index, f, r))
+        .map(|(index, f)| offer(index, f, r, set))
         .collect();
     let score = |o: &FixtureOption| {
         o.error.map_or(f64::MAX, |e| e.arcsec().abs()) + o.u.map_or(0.0, |u| u.arcsec())
     };
     v.sort_by(|a, b| {
-        (!a.reachable, !a.suitable, a.out_of_date)
-            .cmp(&(!b.reachable, !b.suitable, b.out_of_date))
+        (!a.reachable, !a.suitable, !a.buildable, a.out_of_date)
+            .cmp(&(!b.reachable, !b.suitable, !b.buildable, b.out_of_date))
             .then(score(a).total_cmp(&score(b)))
     });
     v
 }
 
-fn offer(index: usize, f: &FixtureSnapshot, r: &RankFor) -> FixtureOption {
+fn offer(
+    index: usize,
+    f: &FixtureSnapshot,
+    r: &RankFor,
+    set: Option<LikelySet<'_>>,
+) -> FixtureOption {
     let (kind, setting, step, unit, today) = (r.kind, r.setting, r.step, r.unit, r.today);
     let geo = geometry(f);
     let stale = out_of_date(f.due, today);
@@ -107,6 +126,7 @@ fn offer(index: usize, f: &FixtureSnapshot, r: &RankFor) -> FixtureOption {
         warnings: Vec::new(),
         out_of_date: stale,
         suitable: true,
+        buildable: true,
     };
     if let Err(why) = suits(f.kind, kind) {
         o.suitable = false;
@@ -134,6 +154,18 @@ fn offer(index: usize, f: &FixtureSnapshot, r: &RankFor) -> FixtureOption {
                 ));
             } else {
                 o.reachable = true;
+            }
+            // a compound setting's stacks are worked out on the stack screen
+            if kind != FeatureKind::Compound
+                && let Some(set) = set
+                && set.solver.fewest(adv.direct.height).is_none()
+            {
+                o.buildable = false;
+                o.warnings.push(format!(
+                    "set {} has no single stack of {}; the stack screen offers other ways",
+                    set.id,
+                    adv.direct.height.show(unit)
+                ));
             }
             o.height = Some(adv.direct.height);
             o.error = Some(adv.direct.error);
@@ -282,7 +314,7 @@ mod tests {
         // the demo shop's SB5-117 is due 2027-03-16: out of date on 2027-03-20
         let today = jiff::civil::date(2027, 3, 20);
         let shop = demo_shop(today);
-        let r = rank_fixtures(&shop, &plain(30.0, today));
+        let r = rank_fixtures(&shop, &plain(30.0, today), None);
         assert_eq!(r.len(), shop.fixtures.len());
         assert!(r[0].reachable && !r[0].out_of_date);
         let bar = r.iter().position(|o| id(&shop, o) == "SB5-117").unwrap();
@@ -305,13 +337,14 @@ mod tests {
         let set = likely_set(&shop, None, None, Unit::In, today).unwrap();
         assert_eq!(set.snap.id, "BX81-A");
         assert_eq!(set_grade(set), Some(Grade::One));
-        let zero = rank_fixtures(&shop, &plain(30.0, today));
+        let zero = rank_fixtures(&shop, &plain(30.0, today), None);
         let one = rank_fixtures(
             &shop,
             &RankFor {
                 grade: Some(Grade::One),
                 ..plain(30.0, today)
             },
+            None,
         );
         let u = |r: &[FixtureOption]| {
             r.iter()
@@ -330,7 +363,7 @@ mod tests {
     fn an_angle_above_the_rating_is_not_reachable() {
         let today = jiff::civil::date(2026, 12, 1);
         let shop = demo_shop(today);
-        let r = rank_fixtures(&shop, &plain(70.0, today));
+        let r = rank_fixtures(&shop, &plain(70.0, today), None);
         let bar = r.iter().find(|o| id(&shop, o) == "SB5-117").unwrap();
         assert!(!bar.reachable);
         assert!(bar.why_not.as_deref().unwrap_or("").contains("rated only"));
@@ -342,11 +375,47 @@ mod tests {
         // −0.00001/(5·cos 30°) rad ≈ −0.48" (DOMAIN: dθ = dH/(C cos θ))
         let today = jiff::civil::date(2026, 12, 1);
         let shop = demo_shop(today);
-        let r = rank_fixtures(&shop, &plain(30.0, today));
+        let r = rank_fixtures(&shop, &plain(30.0, today), None);
         let bar = r.iter().find(|o| id(&shop, o) == "SB5-117").unwrap();
         assert_eq!(bar.height, Some(Length::inches(2.5)));
         let e = bar.error.unwrap().arcsec();
         let expect = -(0.00001f64 / (5.00002 * 30f64.to_radians().cos())).to_degrees() * 3600.0;
         assert!((e - expect).abs() < 0.01, "{e} vs {expect}");
+    }
+
+    #[test]
+    fn a_fixture_whose_height_the_set_cannot_make_goes_after_those_it_can() {
+        // 1°10': sin = 0.0203610 (from memory; the heights below are the code's own, rounded to
+        // 0.0001 in). On the 5 in bar SB5-117 that is 0.1018 in, which the 81-piece set cannot
+        // make in one stack: a last digit of 8 takes the 0.1008 block, leaving 0.0010 in, which
+        // no block makes. On the 10 in plate SP10-042 it is 0.2036 in = 0.1006 + 0.103.
+        // (Series of the 81-piece set: 0.1001-0.1009, 0.101-0.149, 0.050-0.950, 1-4 in; from
+        // memory.)
+        let today = jiff::civil::date(2026, 12, 1);
+        let shop = demo_shop(today);
+        let set = likely_set(&shop, None, None, Unit::In, today).unwrap();
+        let solver = Solver::new(&set.set).unwrap();
+        let likely = LikelySet {
+            id: &set.snap.id,
+            solver: &solver,
+        };
+        let r = rank_fixtures(&shop, &plain(1.0 + 10.0 / 60.0, today), Some(likely));
+        let at = |name: &str| r.iter().position(|o| id(&shop, o) == name).unwrap();
+        let (bar, plate) = (&r[at("SB5-117")], &r[at("SP10-042")]);
+        assert_eq!(bar.height, Some(Length::inches(0.1018)));
+        assert_eq!(plate.height, Some(Length::inches(0.2036)));
+        assert!(bar.reachable && !bar.buildable, "{bar:?}");
+        assert!(plate.reachable && plate.buildable, "{plate:?}");
+        assert!(at("SP10-042") < at("SB5-117"), "{r:#?}");
+        assert!(
+            bar.warnings
+                .iter()
+                .any(|w| w.contains("no single stack of 0.1018 in") && w.contains("BX81-A")),
+            "{:?}",
+            bar.warnings
+        );
+        // without a set to check against, nothing is marked
+        let plain_rank = rank_fixtures(&shop, &plain(1.0 + 10.0 / 60.0, today), None);
+        assert!(plain_rank.iter().all(|o| o.buildable));
     }
 }

@@ -4,9 +4,10 @@
 use super::super::app::{App, Effect, Level, Prompt, PromptKind, Redo};
 use super::super::field::Field;
 use super::super::keymap::{Action, Input};
-use super::super::rank::{RankFor, likely_set, list_sets, rank_fixtures, set_grade};
+use super::super::rank::{LikelySet, RankFor, likely_set, list_sets, rank_fixtures, set_grade};
 use super::super::update::{enter_step, record, refuse_read_only};
 use super::{height_step, here, move_sel, setting};
+use crate::blocks::Solver;
 use crate::traveller::{Choice, EventKind, FeatureState, Stamp, Step};
 
 // ---------------------------------------------------------------- fixture
@@ -41,6 +42,7 @@ pub fn enter_fixture(app: &mut App) {
     );
     let grade = likely.and_then(set_grade);
     app.ui.rank_set = likely.map(|s| (s.snap.id.clone(), s.snap.grade.clone(), grade.is_some()));
+    let solver = likely.and_then(|s| Solver::new(&s.set).ok().map(|v| (s.snap.id.clone(), v)));
     app.ui.fixtures = rank_fixtures(
         &app.shop,
         &RankFor {
@@ -51,6 +53,7 @@ pub fn enter_fixture(app: &mut App) {
             today: app.today,
             grade,
         },
+        solver.as_ref().map(|(id, solver)| LikelySet { id, solver }),
     );
     let chosen = app
         .attempt()

@@ -42,6 +42,7 @@ pub fn draw_fixtures(f: &mut Frame, area: Rect, app: &App) {
             (Some(w), _) => format!("no: {w}"),
             (None, true) => "OUT OF DATE (reason)".into(),
             (None, false) if !o.suitable => "not made for this".into(),
+            (None, false) if !o.buildable => "not in one stack".into(),
             (None, false) if !o.warnings.is_empty() => "yes, see warnings".into(),
             (None, false) => "yes".into(),
         };
