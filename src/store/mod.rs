@@ -131,7 +131,8 @@ fn non_finite(t: &Traveller) -> Option<String> {
     None
 }
 
-/// The YAML a traveller would be saved as, checked to hold only real numbers and to read back.
+/// The YAML a traveller would be saved as, checked to hold only real numbers (and, in debug
+/// builds, to read back).
 pub fn render(t: &Traveller) -> Result<String, StoreError> {
     if let Some(what) = non_finite(t) {
         return Err(StoreError::Serialize(format!(
