@@ -1,5 +1,5 @@
 //! Every broken file in tests/data/travellers-bad/ gives exactly the problems its `# expect:`
-//! lines name, at the line and column they name.
+//! lines name, at the line and column they name; and `tiltbook check FILE` exits 1 printing them.
 
 use std::path::Path;
 use tiltbook::traveller::check_text;
@@ -46,6 +46,59 @@ fn each_bad_file_reports_what_it_expects() {
         }
     }
     assert!(failures.is_empty(), "{}", failures.join("\n"));
+}
+
+#[test]
+fn check_exits_1_on_each_bad_file_with_its_message() {
+    let dir = Path::new(env!("CARGO_MANIFEST_DIR")).join("tests/data/travellers-bad");
+    let mut files: Vec<_> = std::fs::read_dir(&dir)
+        .unwrap()
+        .map(|e| e.unwrap().path())
+        .filter(|p| p.extension().is_some_and(|e| e == "yaml"))
+        .collect();
+    files.sort();
+    for f in &files {
+        let text = std::fs::read_to_string(f).unwrap();
+        let out = std::process::Command::new(env!("CARGO_BIN_EXE_tiltbook"))
+            .arg("check")
+            .arg(f)
+            .output()
+            .unwrap();
+        let so = String::from_utf8_lossy(&out.stdout);
+        assert_eq!(out.status.code(), Some(1), "{}: {so}", f.display());
+        for e in text.lines().filter_map(|l| l.strip_prefix("# expect: ")) {
+            let want = format!("{}:{e}", f.display());
+            let has_pos = e
+                .split(':')
+                .take(2)
+                .all(|p| !p.is_empty() && p.bytes().all(|b| b.is_ascii_digit()));
+            let found = if has_pos {
+                so.lines().any(|l| l.starts_with(&want))
+            } else {
+                so.contains(e)
+            };
+            assert!(found, "{}: expected {e:?} in\n{so}", f.display());
+        }
+    }
+}
+
+#[test]
+fn binary_garbage_is_refused_with_a_message() {
+    // bytes that are not UTF-8 (0xFF never occurs in UTF-8, RFC 3629 §1)
+    let dir = tempfile::tempdir().unwrap();
+    let p = dir.path().join("garbage.yaml");
+    std::fs::write(&p, [0x00, 0xff, 0xfe, 0x1b, b'[', 0x9c, 0x00, 0x80]).unwrap();
+    let out = std::process::Command::new(env!("CARGO_BIN_EXE_tiltbook"))
+        .arg("check")
+        .arg(&p)
+        .output()
+        .unwrap();
+    let so = String::from_utf8_lossy(&out.stdout);
+    assert_eq!(out.status.code(), Some(1), "{so}");
+    assert!(
+        so.contains("garbage.yaml:1:1: the file is not UTF-8 text; save it as UTF-8"),
+        "{so}"
+    );
 }
 
 #[test]

@@ -100,12 +100,17 @@ pub fn parse(text: &str) -> Result<Loaded, LoadError> {
         }
     })?;
     let Value::Mapping(map) = &value else {
+        let what = if value.is_null() {
+            "the file is empty"
+        } else {
+            "the file is a single value or a list, not a traveller"
+        };
         return Err(LoadError::Shape {
             line: 1,
             col: 1,
-            message:
-                "the file should be a traveller: a mapping starting with `schema: 1` and `job:`"
-                    .into(),
+            message: format!(
+                "{what}; a traveller is a mapping starting with `schema: 1` and `job:`: start one with `tiltbook new FILE --part TEXT`, or see docs/traveller-format.md"
+            ),
         });
     };
     if !map.contains_key("job") && !map.contains_key("features") && !map.contains_key("schema") {
