@@ -7,6 +7,7 @@ use super::super::keymap::{Action, Input};
 use super::super::update::{enter_step, open_feature, reach, record, refuse_read_only};
 use super::here;
 use crate::traveller::{Choice, EventKind, FeatureState, Role, Scope, Stamp, Step, Verdict};
+use jiff::civil::Date;
 
 // ---------------------------------------------------------------- verdict
 
@@ -102,22 +103,33 @@ pub fn verdict_key(app: &mut App, input: Input) -> Vec<Effect> {
     }
 }
 
-/// The fixture and block set the last attempt used that are past their calibration date on
-/// `today` and were chosen without a reason: carried into a new attempt, each needs one.
-fn overdue_carried(app: &App, today: jiff::civil::Date) -> Vec<String> {
+/// The due date of a fixture (`fixture`) or block set choice carried into a new attempt, when
+/// it is past on `today` and no reason was recorded for it.
+fn overdue_without_reason(app: &App, c: &Choice, fixture: bool, today: Date) -> Option<Date> {
+    let due = if fixture {
+        app.doc.fixture(&c.id)?.due?
+    } else {
+        app.doc.block_set(&c.id)?.due?
+    };
+    (today > due && c.reason.trim().is_empty()).then_some(due)
+}
+
+/// The fixture and block set of the last attempt that would need a reason in a new one.
+fn overdue_carried(app: &App, today: Date) -> Vec<String> {
     let Some(a) = app.attempt() else {
         return Vec::new();
     };
-    let fixture = a.fixture.as_ref().and_then(|c| {
-        let due = app.doc.fixture(&c.id)?.due?;
-        (today > due && c.reason.trim().is_empty()).then(|| format!("fixture {} (due {due})", c.id))
-    });
-    let set = a.block_set.as_ref().and_then(|c| {
-        let due = app.doc.block_set(&c.id)?.due?;
-        (today > due && c.reason.trim().is_empty())
-            .then(|| format!("block set {} (due {due})", c.id))
-    });
-    fixture.into_iter().chain(set).collect()
+    [
+        ("fixture", &a.fixture, true),
+        ("block set", &a.block_set, false),
+    ]
+    .into_iter()
+    .filter_map(|(what, c, fixture)| {
+        let c = c.as_ref()?;
+        let due = overdue_without_reason(app, c, fixture, today)?;
+        Some(format!("{what} {} (due {due})", c.id))
+    })
+    .collect()
 }
 
 fn new_attempt(app: &mut App) -> Vec<Effect> {
@@ -156,27 +168,23 @@ fn start_attempt(app: &mut App, reason: String) -> Vec<Effect> {
     };
     let by = app.operator.clone();
     let at = Stamp::now();
-    let overdue = |due: Option<jiff::civil::Date>| due.is_some_and(|d| at.date() > d);
-    let fixture_due = app
-        .attempt()
-        .and_then(|a| a.fixture.as_ref())
-        .and_then(|c| app.doc.fixture(&c.id).map(|x| x.due));
-    let set_due = app
-        .attempt()
-        .and_then(|a| a.block_set.as_ref())
-        .and_then(|c| app.doc.block_set(&c.id).map(|x| x.due));
+    let prev = app.attempt().cloned().unwrap_or_default();
+    let needs = |c: &Option<Choice>, fixture: bool| {
+        c.as_ref()
+            .is_some_and(|c| overdue_without_reason(app, c, fixture, at.date()).is_some())
+    };
+    let (fixture_needs, set_needs) = (needs(&prev.fixture, true), needs(&prev.block_set, false));
     let Some(f) = app.doc.features.get_mut(i) else {
         return Vec::new();
     };
-    let prev = f.current_attempt().cloned().unwrap_or_default();
     if let Some(a) = f.current_attempt_mut() {
         a.step = Step::Done;
     }
-    let carry = |c: Option<Choice>, due: Option<Option<jiff::civil::Date>>| {
+    let carry = |c: Option<Choice>, needs_reason: bool| {
         c.map(|c| Choice {
             by: by.clone(),
             at,
-            reason: if c.reason.trim().is_empty() && overdue(due.flatten()) {
+            reason: if needs_reason {
                 reason.clone()
             } else {
                 c.reason
@@ -185,8 +193,8 @@ fn start_attempt(app: &mut App, reason: String) -> Vec<Effect> {
         })
     };
     let a = f.start_attempt(&by, at);
-    a.fixture = carry(prev.fixture.clone(), fixture_due);
-    a.block_set = carry(prev.block_set.clone(), set_due);
+    a.fixture = carry(prev.fixture.clone(), fixture_needs);
+    a.block_set = carry(prev.block_set.clone(), set_needs);
     a.step = Step::Stack;
     let number = a.number;
     let id = f.id.clone();
