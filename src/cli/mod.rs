@@ -8,6 +8,7 @@ use thiserror::Error;
 pub mod center;
 pub mod check;
 pub mod demo;
+pub mod new;
 pub mod open;
 pub mod report;
 pub mod shop;
@@ -79,6 +80,8 @@ pub enum Command {
     Center(center::CenterArgs),
     /// List the shop's fixtures and block sets, or write a starting shop file
     Shop(shop::ShopArgs),
+    /// Start a plan file: the job's details filled in, the features to add by hand
+    New(new::NewArgs),
     /// Check traveller and plan files: every problem as file:line:col: message
     Check(check::CheckArgs),
     /// A report of a traveller: text, Markdown or standalone HTML
@@ -96,6 +99,7 @@ pub fn run(cli: Cli, out: &mut dyn Write) -> Result<ExitCode, CliError> {
         Command::Sweep(a) => sweep::run(&a, out),
         Command::Center(a) => center::run(&a, out),
         Command::Shop(a) => shop::run(&a, out),
+        Command::New(a) => new::run(&a, out),
         Command::Check(a) => check::run(&a, out),
         Command::Report(a) => report::run(&a, out),
         Command::Open(a) => open::run(&a, out),
