@@ -143,13 +143,13 @@ fn stack_of(sizes: &[f64]) -> Stack {
 
 #[test]
 fn two_stacks_under_the_rolls_set_the_angle_of_their_difference() {
-    // F1 on the 5.00004 in bar set on 2.65 in over 0.15 in (no size in both): the difference
-    // 2.5 in gives asin(2.5/5.00004) (DOMAIN: a stack under each roll, equal rolls)
+    // F1 on the 5.00002 in bar SB5-117 set on 2.65 in over 0.15 in (no size in both): the difference
+    // 2.5 in gives asin(2.5/5.00002) (DOMAIN: a stack under each roll, equal rolls)
     let mut t = judged_sample();
     let a = &mut t.features[0].attempts[0];
     let mut raised = stack_of(&[2.0, 0.5, 0.1, 0.05]);
     let mut pivot = stack_of(&[0.15]);
-    let want = Angle::from_rad((2.5f64 / 5.00004).asin());
+    let want = Angle::from_rad((2.5f64 / 5.00002).asin());
     raised.achieved = want;
     pivot.achieved = want;
     raised.built = a.stack.as_ref().unwrap().built.clone();
@@ -159,7 +159,7 @@ fn two_stacks_under_the_rolls_set_the_angle_of_their_difference() {
     assert_eq!(problems(&t), Vec::<String>::new());
     // the raised stack alone would be 2.65 in: an angle from it is caught
     let a = &mut t.features[0].attempts[0];
-    let alone = Angle::from_rad((2.65f64 / 5.00004).asin());
+    let alone = Angle::from_rad((2.65f64 / 5.00002).asin());
     a.stack.as_mut().unwrap().achieved = alone;
     let p = problems(&t);
     assert!(

@@ -17,9 +17,33 @@ fn flags_of_the_finished_sample() {
     let t = finished();
     let f = |id: &str| flags(&t, t.feature(id).unwrap());
     assert!(f("F1").is_empty());
-    assert!(matches!(f("F2").as_slice(), [Flag::CalibrationOutOfDate(w)] if w.contains("SC-10")));
+    // every item of the demo shop was in calibration on 23 November 2026
+    assert!(f("F2").is_empty(), "{:?}", f("F2"));
+    assert_eq!(f("F3"), vec![Flag::SwappedByHand]);
     assert_eq!(f("F4"), vec![Flag::DoubtBand]);
     assert_eq!(f("F5"), vec![Flag::SwappedByHand, Flag::LargeStraightness]);
+}
+
+#[test]
+fn a_fixture_used_past_its_due_date_is_flagged_in_the_report() {
+    // the same job with the centres' due date moved to 1 November 2026, before F2 was set on
+    // them; the record F2 was signed on has changed, and that is flagged too
+    let mut t = finished();
+    let fx = t.fixtures.iter_mut().find(|f| f.id == "SC5-310").unwrap();
+    fx.due = Some("2026-11-01".parse().unwrap());
+    let f2 = flags(&t, t.feature("F2").unwrap());
+    assert_eq!(
+        f2,
+        vec![
+            Flag::CalibrationOutOfDate("fixture SC5-310 (due 2026-11-01)".into()),
+            Flag::ChangedAfterSignOff(vec!["fixture".into()])
+        ]
+    );
+    let text = render(&t, Format::Text);
+    assert!(
+        text.contains("calibration out of date: fixture SC5-310 (due 2026-11-01)"),
+        "{text}"
+    );
 }
 
 #[test]
@@ -52,12 +76,12 @@ fn each_format_carries_the_feature_facts() {
         };
         for want in [
             "J-2417",
-            "15°30'00.0\"",                                  // F3 nominal
-            "0.1002 + 0.1360 + 0.1000 + 1.0000 = 1.3362 in", // F3 stack
-            "-1112.4\"",                                     // F3 attempt 1 deviation
-            "1.3372 in",                                     // F3 attempt 1, 0.137 for 0.136
-            "A 30°00' / B 20°00' (true slope 34°19')",       // F4, both views
-            "0.1001 + 0.1030 + 0.3000 + 1.0000 = 1.5031 in", // F4 other plate
+            "15°30'00.0\"", // F3 nominal
+            "0.0500(p) + 1.0000 + 0.1360 + 0.1002 + 0.0500(p) = 1.3362 in", // F3 stack
+            "-1112.1\"",    // F3 attempt 1 deviation
+            "1.3372 in",    // F3 attempt 1, 0.137 for 0.136
+            "A 30°00' / B 20°00' (true slope 34°19')", // F4, both views
+            "1.0000 + 0.3000 + 0.1030 + 0.1001 = 1.5031 in", // F4 other plate
             "View B",
             "over both views",
             "included angle 2°51'51.1\"", // F2: 2·atan(1/40), tapers.csv
@@ -65,10 +89,9 @@ fn each_format_carries_the_feature_facts() {
             "FAIL",
             "DOUBT",
             "stack swapped by hand",
-            "calibration out of date: fixture SC-10 (due 2025-02-20)",
             "inside the doubt band",
             "large straightness",
-            "TJ, 2025-03-04 17:16",
+            "TJ, 2026-11-23 17:16",
             "5 of 5 features finished",
         ] {
             assert!(r.contains(want), "{fmt:?} lacks {want}:\n{r}");

@@ -68,21 +68,41 @@ fn finished_job_has_a_failed_then_passed_feature() {
     assert_eq!(t.progress(), (5, 5));
 }
 
-/// Source: sine-tables/stack-heights.csv (mpmath, 50 digits), copied to tests/data/sine/.
+/// A row of one of the mpmath tables (tests/data/sine-tables/, copied from the shared reference
+/// data; see tests/data/README.md): the numbers of the first line starting with `key`.
+fn table_row(file: &str, key: &str) -> Vec<f64> {
+    let p = Path::new(env!("CARGO_MANIFEST_DIR"))
+        .join("tests/data/sine-tables")
+        .join(file);
+    let text = std::fs::read_to_string(&p).unwrap_or_else(|e| panic!("{}: {e}", p.display()));
+    let line = text
+        .lines()
+        .find(|l| l.starts_with(key))
+        .unwrap_or_else(|| panic!("{file} has no row {key}"));
+    line.split(',').filter_map(|c| c.parse().ok()).collect()
+}
+
+/// A height in inches on the 0.0001 in grid of the set.
+fn on_grid(inches: f64) -> tiltbook::units::Length {
+    tiltbook::units::Length::parse(&format!("{inches:.4}"), tiltbook::units::Unit::In).unwrap()
+}
+
+/// Source: sine-tables/stack-heights.csv (mpmath, 50 digits), copied to tests/data/sine-tables/.
 #[test]
 fn sample_stacks_agree_with_the_sine_table() {
     let t = parse(&read("ds-204-finished.yaml")).unwrap().traveller;
-    // 5 in bar at 30°: H = 2.5 in (table row `5in,in,30,0,0,2.5`); the fixture's calibrated
-    // centre 5.00004 in adds 0.00002 in, which rounds away at 0.0001 in.
+    // 5 in bar at 30°: row `5in,in,30,0,0,2.5` gives H = 2.5 in; on SB5-117, whose calibrated
+    // centre is 5.00002 in, H scales by 5.00002/5 to 2.50001 in: 2.5000 in on the 0.0001 in grid
+    let row = table_row("stack-heights.csv", "5in,in,30,0,0,");
+    let want = on_grid(row[3] * 5.00002 / 5.0);
     let f1 = t.feature("F1").unwrap().accepted_attempt().unwrap();
-    assert_eq!(
-        f1.stack
-            .as_ref()
-            .unwrap()
-            .height
-            .show(tiltbook::units::Unit::In),
-        "2.5000 in"
-    );
+    let s = f1.stack.as_ref().unwrap();
+    assert_eq!(s.height, want);
+    assert_eq!(s.height.show(tiltbook::units::Unit::In), "2.5000 in");
+    // the set's 0.050 in protectors are on both ends, counted in the height (standards.md:
+    // protector blocks are allowed for in the height)
+    let ends = [s.blocks.first().unwrap(), s.blocks.last().unwrap()];
+    assert!(ends.iter().all(|b| b.protector), "{:?}", s.blocks);
 }
 
 #[test]
@@ -100,8 +120,9 @@ fn the_corrected_feature_carries_its_swap_and_the_kinds_are_complete() {
     );
     assert!(s.swaps[0].reason.is_empty());
     assert_eq!(s.height, inch("1.3372"));
-    // θ = asin(H/C) on the 5.00004 in bar (DOMAIN; angles-from-stack.csv method)
-    let want = (1.3372f64 / 5.00004).asin().to_degrees();
+    // θ = asin(H/C) on the 5.00002 in bar SB5-117 (DOMAIN; the method of
+    // angles-from-stack.csv, which has no row for this height)
+    let want = (1.3372f64 / 5.00002).asin().to_degrees();
     assert!(
         (s.achieved.deg() - want).abs() < 1e-6,
         "{}",
@@ -113,9 +134,11 @@ fn the_corrected_feature_carries_its_swap_and_the_kinds_are_complete() {
     );
     // F4: both plates, both sweeps, a verdict on both
     let a = &t.feature("F4").unwrap().attempts[0];
-    // compound.csv row 30,20 on 5 in: 2.5 and 1.50313289 in; on the 4.99998 in plate the
-    // other is 1.50312688 in, 1.5031 in on the 0.0001 in grid
-    assert_eq!(a.stack.as_ref().unwrap().height, inch("2.5"));
+    // compound.csv row `30.0,20.0,…`: on a 5 in plate 2.5 and 1.50313289 in; CSP5-014's centre
+    // is 5.00000 in, so 2.5000 and 1.5031 in on the 0.0001 in grid
+    let row = table_row("compound.csv", "30.0,20.0,");
+    assert_eq!(a.stack.as_ref().unwrap().height, on_grid(row[5]));
+    assert_eq!(a.stack_b.as_ref().unwrap().height, on_grid(row[6]));
     assert_eq!(a.stack_b.as_ref().unwrap().height, inch("1.5031"));
     assert!(a.sweep.as_ref().unwrap().complete() && a.sweep_b.as_ref().unwrap().complete());
     let j = a.judgement.as_ref().unwrap();
@@ -125,12 +148,64 @@ fn the_corrected_feature_carries_its_swap_and_the_kinds_are_complete() {
     // (the file keeps angles to 0.001")
     let want = tiltbook::units::Angle::from_rad(v.fit.slope.atan());
     assert!((v.residual.arcsec() - want.arcsec()).abs() <= 0.001);
-    // F2: the taper, set at its half angle on the 10.0001 in centres: tapers.csv 1:20 →
-    // 1.4320961842°, H = 10.0001·sin(half) = 0.249924 in → 0.2499 in
+    // F2: the taper, set at its half angle on the 5.00000 in centres SC5-310: tapers.csv row
+    // `1:20` gives the half angle 1.4320961842°; H = 5·sin(half) = 0.124962 in → 0.1250 in
+    // (numeric columns: diameter change, length, half angle, included angle)
+    let half = table_row("tapers.csv", "1:20,")[2];
     let f2 = t.feature("F2").unwrap();
     let a = f2.accepted_attempt().unwrap();
-    assert_eq!(a.stack.as_ref().unwrap().height, inch("0.2499"));
-    assert!((f2.setting_angle().unwrap().deg() - 1.4320961842).abs() < 1e-9);
+    assert_eq!(
+        a.stack.as_ref().unwrap().height,
+        on_grid(5.0 * half.to_radians().sin())
+    );
+    assert_eq!(a.stack.as_ref().unwrap().height, inch("0.125"));
+    assert!((f2.setting_angle().unwrap().deg() - half).abs() < 1e-9);
     assert_eq!(a.judgement.as_ref().unwrap().verdict, Verdict::Pass);
     assert_eq!(f2.state, FeatureState::Signed);
+}
+
+#[test]
+fn the_samples_use_the_demo_shop_in_calibration() {
+    // the equipment is the built-in demo shop's, as its screens snapshot it, and every item was
+    // in date when the job was worked (23-24 November 2026)
+    use tiltbook::tui::shop_view::ShopView;
+    let shop = ShopView::from_shop(&tiltbook::shop::Shop::built_in());
+    for name in ["ds-204-half-done.yaml", "ds-204-finished.yaml"] {
+        let t = parse(&read(name)).unwrap().traveller;
+        let last = t.events.iter().map(|e| e.at.date()).max().unwrap();
+        for fx in &t.fixtures {
+            assert_eq!(Some(fx), shop.fixture(&fx.id), "{name}: {}", fx.id);
+            assert!(fx.due.is_some_and(|d| d >= last), "{name}: {}", fx.id);
+        }
+        for set in &t.block_sets {
+            assert_eq!(Some(set), shop.set(&set.id).map(|s| &s.snap), "{name}");
+            assert!(set.due.is_some_and(|d| d >= last), "{name}: {}", set.id);
+        }
+        assert_eq!(t.block_sets.len(), 1, "{name}");
+    }
+}
+
+#[test]
+fn no_stack_uses_a_block_the_set_lacks_or_a_worn_one() {
+    // BX81-A: the 0.1007 in is missing and the 0.101 in worn (sample-jobs/demo-shop.yaml)
+    use tiltbook::units::{Length, Unit};
+    let t = parse(&read("ds-204-finished.yaml")).unwrap().traveller;
+    let set = &t.block_sets[0];
+    let missing = Length::parse("0.1007", Unit::In).unwrap();
+    let worn = Length::parse("0.101", Unit::In).unwrap();
+    assert!(set.missing.contains(&missing) && set.worn.contains(&worn));
+    for f in &t.features {
+        for a in &f.attempts {
+            for s in [&a.stack, &a.stack_b].into_iter().flatten() {
+                for b in &s.blocks {
+                    assert!(
+                        b.size != missing && b.size != worn,
+                        "{}: {:?}",
+                        f.id,
+                        b.size
+                    );
+                }
+            }
+        }
+    }
 }

@@ -54,9 +54,9 @@ fn review_opens_on_the_list_and_asks_the_name_first_when_unknown() {
 
 #[test]
 fn the_flags_of_the_finished_sample_are_the_ones_its_header_describes() {
-    // sample-jobs/ds-204-finished.yaml says: F2 used centres past calibration, F3 had a block
-    // swapped by hand, F4 fell in the doubt band, F5 had a block swapped by hand (and its sweep
-    // is not straight)
+    // sample-jobs/ds-204-finished.yaml says: F3 had a block swapped by hand, F4 fell in the
+    // doubt band, F5 had a block swapped by hand (and its sweep is not straight); F2 (one block,
+    // protectors left off) has nothing to flag: every item was in calibration
     let t = finished_for_review();
     let tags = |id: &str| -> Vec<&'static str> {
         review_flags(&t, t.feature(id).unwrap())
@@ -65,7 +65,7 @@ fn the_flags_of_the_finished_sample_are_the_ones_its_header_describes() {
             .collect()
     };
     assert_eq!(tags("F1"), Vec::<&str>::new());
-    assert_eq!(tags("F2"), vec!["cal"]);
+    assert_eq!(tags("F2"), Vec::<&str>::new());
     assert_eq!(tags("F3"), vec!["swap"]);
     assert_eq!(tags("F4"), vec!["doubt"]);
     assert_eq!(tags("F5"), vec!["swap", "straight"]);
@@ -74,8 +74,30 @@ fn the_flags_of_the_finished_sample_are_the_ones_its_header_describes() {
         f4[0].words.starts_with("accepted inside the doubt band"),
         "{f4:?}"
     );
+}
+
+#[test]
+fn centres_used_past_their_due_date_with_a_reason_are_flagged_with_it() {
+    // the finished sample with the centres due on 1 November 2026, before F2 was set on them,
+    // and the reason the operator would have had to give for choosing them
+    let mut t = finished_for_review();
+    let fx = t.fixtures.iter_mut().find(|f| f.id == "SC5-310").unwrap();
+    fx.due = Some("2026-11-01".parse().unwrap());
+    let a = &mut t.feature_mut("F2").unwrap().attempts[0];
+    if let Some(c) = a.fixture.as_mut() {
+        c.reason = "only centres free; recheck booked".into();
+    }
     let f2 = review_flags(&t, t.feature("F2").unwrap());
-    assert!(f2[0].words.contains("reason given"), "{f2:?}");
+    let tags: Vec<&str> = f2.iter().map(|f| f.tag).collect();
+    // the record F2 was signed on has changed, and that is flagged too
+    assert_eq!(tags, vec!["cal", "changed"], "{f2:?}");
+    assert!(f2[0].words.contains("SC5-310"), "{f2:?}");
+    assert!(
+        f2[0]
+            .words
+            .contains("reason given: only centres free; recheck booked"),
+        "{f2:?}"
+    );
 }
 
 #[test]
@@ -87,19 +109,18 @@ fn the_filter_shows_only_flagged_features_and_the_selection_follows() {
         .iter()
         .map(|i| app.doc.features[*i].id.clone())
         .collect();
-    assert_eq!(ids, ["F2", "F3", "F4", "F5"]);
+    assert_eq!(ids, ["F3", "F4", "F5"]);
     assert_eq!(
-        app.doc.features[app.ui.review.sel].id, "F2",
-        "moved onto a flagged feature (F1 has no flag)"
+        app.doc.features[app.ui.review.sel].id, "F3",
+        "moved onto a flagged feature (F1 and F2 have no flag)"
     );
     act(&mut app, &mut r, Action::Up);
     assert_eq!(
-        app.doc.features[app.ui.review.sel].id, "F2",
-        "F1 is not shown"
+        app.doc.features[app.ui.review.sel].id, "F3",
+        "F1 and F2 are not shown"
     );
     act(&mut app, &mut r, Action::Down);
-    assert_eq!(app.doc.features[app.ui.review.sel].id, "F3");
-    act(&mut app, &mut r, Action::Down);
+    assert_eq!(app.doc.features[app.ui.review.sel].id, "F4");
     act(&mut app, &mut r, Action::Down);
     act(&mut app, &mut r, Action::Down);
     assert_eq!(app.doc.features[app.ui.review.sel].id, "F5");

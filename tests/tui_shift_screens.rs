@@ -127,7 +127,7 @@ fn review_of_the_compound_feature_shows_both_plates_views_and_verdicts() {
     for want in [
         "A 30°00' / B 20°00' (true slope 34°19')",
         "plate for view A: 2.0000 + 0.5000 = 2.5000 in",
-        "plate for view B: 0.1001 + 0.1030 + 0.3000 + 1.0000",
+        "plate for view B: 1.0000 + 0.3000 + 0.1030 + 0.1001",
         "view A: 5 of 5 over 4.0000 in",
         "view B: 5 of 5 over 4.0000 in",
         "DOUBT over both views",

@@ -52,9 +52,21 @@ fn the_same_position_twice_is_refused_or_saves_clean() {
 
 #[test]
 fn a_new_attempt_with_an_overdue_set_asks_why_and_records_it() {
-    // the sample's block set GB-81 was due 2025-09-01 (sample-jobs/demo-shop.yaml): by today it
-    // is out of date, though it was in date when attempt 1 chose it
-    let (mut app, mut r) = app_with(sample("ds-204-half-done.yaml"), Some("KM"), false);
+    // the half-done sample's block set BX81-A, made due on 27 November 2026: in date when
+    // attempt 1 chose it (23 November), out of date by today (the real date a new attempt is
+    // stamped with). F1's sign-off is made again over the changed record, as if signed so.
+    use tiltbook::traveller::{Scope, digest};
+    let mut doc = sample("ds-204-half-done.yaml");
+    let set = doc.block_sets.iter_mut().find(|s| s.id == "BX81-A");
+    set.expect("the sample records BX81-A").due = Some(jiff::civil::date(2026, 11, 27));
+    for i in 0..doc.signoffs.len() {
+        let s = &doc.signoffs[i];
+        let fields = digest::digests_for(&doc, s.scope, s.feature.as_deref()).unwrap();
+        doc.signoffs[i].digest = digest::combined(&fields);
+        doc.signoffs[i].fields = fields;
+    }
+    assert!(doc.signoffs.iter().all(|s| s.scope == Scope::Feature));
+    let (mut app, mut r) = app_with(doc, Some("KM"), false);
     enter(&mut app, &mut r); // the handover note is read
     assert_eq!(
         step(&app),
@@ -74,7 +86,7 @@ fn a_new_attempt_with_an_overdue_set_asks_why_and_records_it() {
         .map(|p| p.title.clone())
         .unwrap_or_default();
     assert!(
-        title.contains("out of date") && title.contains("GB-81"),
+        title.contains("out of date") && title.contains("block set BX81-A (due 2026-11-27)"),
         "asked why the overdue set is used again: {title:?}"
     );
     // Esc keeps the verdict: no attempt is started

@@ -3,11 +3,15 @@
 //! least-squares line through the readings; residual = atan(slope); deviation =
 //! (achieved − nominal) − residual; U = 2·√Σu²; the guarded rule).
 //!
-//! The story (invented): first shift (KM) sets F1 and signs it, starts the taper F2 and hands
-//! over mid-sweep. Second shift (TJ) finishes F2; on F3 swaps a block by hand and fails on a
-//! chip under the part, then passes on a second attempt; sets both plates for the compound F4
-//! and sweeps both views, view A inside the doubt band (the lead decides); swaps a burred block
-//! on F5. The lead (LV) signs the job next morning.
+//! The equipment is the built-in demo shop's (equipment.rs), and each stack is the one the stack
+//! screen offers from its set (the solver), so the samples open with the demo shop unchanged.
+//!
+//! The story (invented, 23-24 November 2026, every item in calibration): first shift (KM)
+//! sets F1 on the sine bar and signs it, starts the taper F2 on the sine centres (one block,
+//! protectors left off) and hands over mid-sweep. Second shift (TJ) finishes F2; on F3 swaps a
+//! block by hand and fails on a chip under the part, then passes on a second attempt; sets both
+//! plates for the compound F4 and sweeps both views, view A inside the doubt band (the lead
+//! decides); swaps a burred block on F5. The lead (LV) signs the job next morning.
 
 use std::path::Path;
 use tiltbook::traveller::validate::decide;
@@ -18,10 +22,13 @@ use tiltbook::units::{Angle, Length, Unit};
 mod compute;
 #[path = "equipment.rs"]
 mod equipment;
+#[path = "stacks.rs"]
+mod stacks;
 #[path = "views.rs"]
 mod views;
 use compute::{angle_for, budget, expanded, fit};
-use equipment::{block_set, fixtures};
+use equipment::{BAR, CENTRES, PLATE, SET, block_set, fixture};
+use stacks::{named, planned, planned_plates};
 
 fn len(s: &str) -> Length {
     Length::parse(s, Unit::In).unwrap()
@@ -87,17 +94,12 @@ impl Shift<'_> {
             .unwrap()
     }
 
-    /// Start an attempt and go as far as the settled stack.
-    fn setup(
-        &mut self,
-        f: &str,
-        fx: &str,
-        blocks: &[&str],
-        swap: Option<HandSwap>,
-        reason: &str,
-    ) -> u32 {
-        let n = self.start(f, fx, reason);
+    /// Start an attempt and go as far as the settled stack: the stack the screen offers for
+    /// the setting, with a block swapped by hand on the way.
+    fn setup(&mut self, f: &str, fx: &str, swap: Option<HandSwap>) -> u32 {
+        let n = self.start(f, fx, "");
         let fxs = self.t.fixture(fx).unwrap().clone();
+        let (blocks, _) = planned(self.t, f, fx);
         let (bl, swaps) = self.wring(f, n, blocks, swap, "", &fxs);
         let height: Length = bl.iter().map(|b| b.size).sum();
         let achieved = angle_for(&fxs, height);
@@ -114,9 +116,10 @@ impl Shift<'_> {
     }
 
     /// A compound angle: both plates' stacks from the one set, wrung and confirmed together.
-    fn setup_plates(&mut self, f: &str, fx: &str, near: &[&str], other: &[&str]) -> u32 {
+    fn setup_plates(&mut self, f: &str, fx: &str) -> u32 {
         let n = self.start(f, fx, "");
         let fxs = self.t.fixture(fx).unwrap().clone();
+        let (near, other) = planned_plates(self.t, f, fx);
         let (nb, _) = self.wring(f, n, near, None, "near plate: ", &fxs);
         let (ob, _) = self.wring(f, n, other, None, "other plate: ", &fxs);
         let total = |b: &[StackBlock]| b.iter().map(|b| b.size).sum::<Length>();
@@ -161,9 +164,9 @@ impl Shift<'_> {
         });
         self.attempt(f).step = Step::BlockSet;
         self.state(f, FeatureState::FixtureChosen);
-        let at = self.log(1, EventKind::SetChosen, f, Some(n), "GB-81");
+        let at = self.log(1, EventKind::SetChosen, f, Some(n), SET);
         self.attempt(f).block_set = Some(Choice {
-            id: "GB-81".into(),
+            id: SET.into(),
             reason: String::new(),
             by: self.by.into(),
             at,
@@ -178,22 +181,23 @@ impl Shift<'_> {
         &mut self,
         f: &str,
         n: u32,
-        blocks: &[&str],
+        blocks: Vec<StackBlock>,
         swap: Option<HandSwap>,
         whose: &str,
         fxs: &FixtureSnapshot,
     ) -> (Vec<StackBlock>, Vec<Swap>) {
-        let mut bl: Vec<StackBlock> = blocks
-            .iter()
-            .map(|b| StackBlock {
-                size: len(b),
-                protector: false,
-                wrung: false,
-            })
-            .collect();
+        let mut bl = blocks;
         let mut swaps = Vec::new();
         for i in 0..bl.len() {
-            match swap.filter(|w| w.at == i) {
+            let swap_here = swap.filter(|w| w.at == i);
+            if let Some(w) = swap_here {
+                assert_eq!(
+                    bl[i].size,
+                    len(w.planned),
+                    "{f}: the swapped block is planned"
+                );
+            }
+            match swap_here {
                 Some(w) if w.reason.is_empty() => {
                     // as the screens record it: the size typed for the block, the angle
                     // worked out from what was built, no separate tick
@@ -334,14 +338,15 @@ impl Shift<'_> {
         let fit = fit(&sw.points_xy());
         let residual = Angle::from_rad(fit.slope.atan());
         let deviation = (s.achieved - feat.setting_angle().unwrap()) - residual;
-        let b = budget(&fx, s, sw);
+        let set = self.t.block_set(SET).unwrap().clone();
+        let b = budget(&fx, &set, s, sw);
         let u = expanded(&b);
         let own = decide(DecisionRule::Guarded, deviation, u, feat.tolerance);
         // a compound angle: the other view judged on its own; both must pass
         let view_b = feat
             .compound
             .as_ref()
-            .map(|c| views::judge_view_b(&fx, c, a, feat.tolerance));
+            .map(|c| views::judge_view_b(&fx, &set, c, a, feat.tolerance));
         let verdict = view_b.as_ref().map_or(own, |v| own.worse(v.verdict));
         let correction = (verdict == Verdict::Fail).then(|| {
             let th = s.achieved.rad();
@@ -388,8 +393,8 @@ impl Shift<'_> {
 }
 
 fn first_shift(t: &mut Traveller, clock: &mut Clock) {
-    t.put_fixture(fixtures()[0].clone());
-    t.put_fixture(fixtures()[1].clone());
+    t.put_fixture(fixture(BAR));
+    t.put_fixture(fixture(CENTRES));
     t.put_block_set(block_set());
     let at = clock.tick(0);
     t.log_at(
@@ -401,8 +406,8 @@ fn first_shift(t: &mut Traveller, clock: &mut Clock) {
         "from plan ds-204-plan.yaml",
     );
     let mut s = Shift { t, clock, by: "KM" };
-    // F1: 5 in bar, 30° → H = 2.5000 in (2 + 0.5)
-    let n = s.setup("F1", "SB-5A", &["2in", "0.5in"], None, "");
+    // F1: 30° on the 5.00002 in bar → H = 2.5000 in: 0.050 protector + 2 + 0.4 + protector
+    let n = s.setup("F1", BAR, None);
     s.sweep(
         "F1",
         n,
@@ -411,17 +416,36 @@ fn first_shift(t: &mut Traveller, clock: &mut Clock) {
     );
     assert_eq!(s.judge("F1", n), Verdict::Pass);
     s.sign("F1");
-    // F2: taper 1:20 on 10 in centres → H = 0.2499 in (0.1009 + 0.149); calibration overdue
-    let n = s.setup("F2", "SC-10", &["0.1009in", "0.149in"], None, "10 in centres overdue (due 2025-02-20, booked for next week); only centres free; zero checked against SB-5A at 1°26'");
+    // F2: taper 1:20 on the 5 in centres → H = 0.1250 in, one block; the set cannot make it
+    // with its 0.050 in protectors, so they are left off
+    let (_, left_off) = planned(s.t, "F2", CENTRES);
+    assert!(left_off.is_some(), "F2: the protectors are left off");
+    let n = s.setup("F2", CENTRES, None);
     s.sweep(
         "F2",
         n,
         &["0.0000", "-0.0001", "-0.0001", "-0.0002", "-0.0003"],
         3,
     );
+    let a = s.attempt("F2").clone();
+    let st = a.stack.as_ref().unwrap();
+    let sw = a.sweep.as_ref().unwrap();
+    let (travel, points, done) = (sw.travel.unwrap(), sw.points.unwrap(), sw.readings.len());
+    let next = Length::from_f64(travel.as_in() * done as f64 / (points - 1) as f64, Unit::In);
+    let what = match st.blocks.len() {
+        1 => "one block".to_string(),
+        _ => named(&st.blocks),
+    };
+    let text = format!(
+        "F1 done and signed. F2 (taper) is on the {CENTRES} sine centres: stack {} ({}), protectors left off (the set cannot make that height with them), wrung and settled, sets {}; {done} of {points} readings in, next at the {} in mark. F3–F5 not started.",
+        st.height.show(Unit::In),
+        what,
+        st.achieved.dms(1),
+        next.exact_number(Unit::In, 0),
+    );
     let at = s.clock.tick(6);
     s.t.handovers.push(Handover {
-        text: "F1 done and signed. F2 (taper) is on the 10 in centres: stack 0.1009 + 0.149 wrung and settled, 3 of 5 readings in; carry on from the 2 in mark. Centres calibration is overdue, reason recorded. F3–F5 not started.".into(),
+        text,
         by: "KM".into(),
         at,
         read_by: Vec::new(),
@@ -445,7 +469,7 @@ fn second_shift(t: &mut Traveller, clock: &mut Clock) {
         at,
     });
     t.log_at(at, "TJ", EventKind::HandoverRead, None, None, "");
-    t.put_fixture(fixtures()[2].clone());
+    t.put_fixture(fixture(PLATE));
     let mut s = Shift { t, clock, by: "TJ" };
     s.sweep(
         "F2",
@@ -455,18 +479,17 @@ fn second_shift(t: &mut Traveller, clock: &mut Clock) {
     );
     assert_eq!(s.judge("F2", 1), Verdict::Pass);
     s.sign("F2");
-    // F3: 15°30' → H = 1.3362 in (0.1002 + 0.136 + 0.1 + 1). Attempt 1: the 0.136 is in use
-    // on the other bench, so the 0.137 is wrung in its place and typed in as a swap (1.3372 in);
-    // the readings rise 0.0224 in over 4 in: a chip under the part at the stop, fail. Attempt 2:
-    // part cleaned and re-clamped, stack built as planned with the 0.136, pass.
-    let blocks = ["0.1002in", "0.136in", "0.1in", "1in"];
+    // F3: 15°30' → H = 1.3362 in (protector + 1 + 0.136 + 0.1002 + protector). Attempt 1: the
+    // 0.136 is in use on the other bench, so the 0.137 is wrung in its place and typed in as a
+    // swap (1.3372 in); the readings rise 0.0224 in over 4 in: a chip under the part at the
+    // stop, fail. Attempt 2: part cleaned and re-clamped, stack built as planned, pass.
     let swap = HandSwap {
-        at: 1,
+        at: 2,
         planned: "0.136",
         used: "0.137",
         reason: "",
     };
-    let n = s.setup("F3", "SB-5A", &blocks, Some(swap), "");
+    let n = s.setup("F3", BAR, Some(swap));
     s.sweep(
         "F3",
         n,
@@ -474,8 +497,8 @@ fn second_shift(t: &mut Traveller, clock: &mut Clock) {
         5,
     );
     assert_eq!(s.judge("F3", n), Verdict::Fail);
-    s.attempt("F3").note = "0.137 used for the 0.136 (in use on bench 1); the part was lifted by a chip under it at the stop: cleaned, re-clamped, stack built again as planned; correction not applied".into();
-    let n = s.setup("F3", "SB-5A", &blocks, None, "");
+    s.attempt("F3").note = "0.137 used for the 0.136 (in use on the other bench); the part was lifted by a chip under it at the stop: cleaned, re-clamped, stack built again as planned; correction not applied".into();
+    let n = s.setup("F3", BAR, None);
     s.sweep(
         "F3",
         n,
@@ -485,15 +508,10 @@ fn second_shift(t: &mut Traveller, clock: &mut Clock) {
     assert_eq!(s.judge("F3", n), Verdict::Pass);
     s.sign("F3");
     // F4: compound A 30°, B 20°, near plate A → plates 30° (2 + 0.5 = 2.5000 in) and 17°29'43"
-    // (0.1001 + 0.103 + 0.3 + 1 = 1.5031 in), from the one set with no block in both. View A
+    // (1 + 0.3 + 0.103 + 0.1001 = 1.5031 in), from the one set with no block in both. View A
     // rises 0.0116 in over 4 in (doubt band); view B is level to 0.0001 in (pass): the attempt
     // is in the doubt band.
-    let n = s.setup_plates(
-        "F4",
-        "CP-5",
-        &["2in", "0.5in"],
-        &["0.1001in", "0.103in", "0.3in", "1in"],
-    );
+    let n = s.setup_plates("F4", PLATE);
     s.sweep(
         "F4",
         n,
@@ -508,14 +526,15 @@ fn second_shift(t: &mut Traveller, clock: &mut Clock) {
         5,
     );
     assert_eq!(s.judge("F4", n), Verdict::Doubt);
-    // F5: 5°43' → H = 0.4980 in (0.148 + 0.35); the 0.148 has a burr, the 0.149 is used
+    // F5: 5°43' → H = 0.4980 in (protector + 0.25 + 0.148 + protector); the 0.148 has a burr,
+    // the 0.149 is used
     let burr = HandSwap {
-        at: 0,
+        at: 2,
         planned: "0.148",
         used: "0.149",
         reason: "burr on the 0.148",
     };
-    let n = s.setup("F5", "SB-5A", &["0.148in", "0.35in"], Some(burr), "");
+    let n = s.setup("F5", BAR, Some(burr));
     s.sweep(
         "F5",
         n,
@@ -570,7 +589,7 @@ fn lead_review(t: &mut Traveller, clock: &mut Clock) {
 pub fn write_all(dir: &Path) {
     let plan = std::fs::read_to_string(dir.join("ds-204-plan.yaml")).unwrap();
     let mut t = parse(&plan).unwrap().traveller;
-    let mut clock = Clock::new("2025-03-04T07:05:00-05:00");
+    let mut clock = Clock::new("2026-11-23T07:05:00-05:00");
     first_shift(&mut t, &mut clock);
     let head = "# Job J-2417 at the end of the first shift (invented example): F1 signed, F2 stopped\n# mid-sweep with a handover note. Written by tiltbook; check with `tiltbook check`.\n";
     std::fs::write(
@@ -578,11 +597,11 @@ pub fn write_all(dir: &Path) {
         format!("{head}{}", to_yaml(&t).unwrap()),
     )
     .unwrap();
-    let mut clock = Clock::new("2025-03-04T15:20:00-05:00");
+    let mut clock = Clock::new("2026-11-23T15:20:00-05:00");
     second_shift(&mut t, &mut clock);
-    let mut clock = Clock::new("2025-03-05T08:10:00-05:00");
+    let mut clock = Clock::new("2026-11-24T08:10:00-05:00");
     lead_review(&mut t, &mut clock);
-    let head = "# Job J-2417 finished and signed (invented example): F2 (a taper) used centres past\n# calibration; F3 had a block swapped by hand, failed and passed on a second attempt; F4 (a\n# compound angle: two plates, two sweeps) fell in the doubt band; F5 had a block swapped by\n# hand. Written by tiltbook; check with `tiltbook check`.\n";
+    let head = "# Job J-2417 finished and signed (invented example): F2 (a taper) was set with one\n# block, the protectors left off; F3 had a block swapped by hand, failed and passed on a second\n# attempt; F4 (a compound angle: two plates, two sweeps) fell in the doubt band; F5 had a block\n# swapped by hand. Written by tiltbook; check with `tiltbook check`.\n";
     std::fs::write(
         dir.join("ds-204-finished.yaml"),
         format!("{head}{}", to_yaml(&t).unwrap()),

@@ -19,6 +19,7 @@ fn round3(arcsec: f64) -> Angle {
 
 pub fn judge_view_b(
     fx: &FixtureSnapshot,
+    set: &BlockSetSnapshot,
     c: &Compound,
     a: &Attempt,
     tol: Tolerance,
@@ -35,7 +36,7 @@ pub fn judge_view_b(
     let d_dl = (view_b(u, l + h) - view_b(u, l - h)) / (2.0 * h);
     let d_du = (view_b(u + h, l) - view_b(u - h, l)) / (2.0 * h);
     // [blocks, centre, temperature, indicator] of the other plate, its sweep
-    let plate = budget(fx, other, sw);
+    let plate = budget(fx, set, other, sw);
     let mut lines: Vec<BudgetLine> = plate[..3]
         .iter()
         .map(|x| BudgetLine {
@@ -44,7 +45,7 @@ pub fn judge_view_b(
             note: format!("{}; × ∂B/∂l = {d_dl:.3}", x.note),
         })
         .collect();
-    let near_setting = &budget(fx, near, sw)[..3];
+    let near_setting = &budget(fx, set, near, sw)[..3];
     let near_u = near_setting
         .iter()
         .map(|x| x.u.arcsec().powi(2))

@@ -46,11 +46,12 @@ pub fn sample(name: &str) -> Traveller {
         .traveller
 }
 
-/// Put every time stamped by the test run (after 2026) at one fixed time, so screens that show
+/// Put every time stamped by the test run (from 30 November 2026, after the sample jobs' own
+/// stamps of 23-24 November 2026) at one fixed time, so screens that show
 /// when something was signed or returned can be compared with a snapshot.
 pub fn fix_times(t: &mut Traveller) {
     use tiltbook::traveller::Stamp;
-    let cut = Stamp::parse("2026-01-01T00:00:00Z").unwrap();
+    let cut = Stamp::parse("2026-11-30T00:00:00Z").unwrap();
     let fixed = Stamp::parse("2026-12-01T10:30:00-05:00").unwrap();
     let f = |s: &mut Stamp| {
         if s.timestamp() > cut.timestamp() {
