@@ -283,3 +283,49 @@ fn protectors_come_off_and_on_before_any_block_is_wrung() {
     );
     assert_reopens(&app);
 }
+
+#[test]
+fn the_set_kept_through_a_fixture_change_is_chosen_again_with_a_reason_when_out_of_date() {
+    let (mut app, mut r) = app();
+    to_stack(&mut app, &mut r);
+    let set = app.attempt().unwrap().block_set.clone().unwrap();
+    assert!(set.reason.is_empty());
+    // days pass: the demo shop's BX81-A is due 2027-04-30
+    app.today = jiff::civil::date(2027, 5, 3);
+    while step(&app) != Some(Step::Fixture) {
+        esc(&mut app, &mut r);
+    }
+    let sel = app.ui.fixture_sel;
+    let other = (0..app.ui.fixtures.len())
+        .find(|&k| k != sel && app.ui.fixtures[k].reachable && app.ui.fixtures[k].suitable)
+        .unwrap();
+    app.ui.fixture_sel = other;
+    enter(&mut app, &mut r); // another fixture
+    if app.prompt.is_some() {
+        // out of date too by then, or the stack to clear: answer and go on
+        typ(&mut app, &mut r, "lead approved");
+        enter(&mut app, &mut r);
+    }
+    assert_eq!(app.feature().unwrap().state, FeatureState::FixtureChosen);
+    assert_eq!(step(&app), Some(Step::BlockSet));
+    let before = events(&app, EventKind::SetChosen);
+    enter(&mut app, &mut r); // the same set, kept
+    assert!(
+        matches!(
+            app.prompt.as_ref().map(|p| &p.kind),
+            Some(PromptKind::SetReason(_))
+        ),
+        "the kept set is now out of date: a reason is asked"
+    );
+    typ(&mut app, &mut r, "recheck booked for Friday");
+    enter(&mut app, &mut r);
+    assert_eq!(step(&app), Some(Step::Stack));
+    assert_eq!(events(&app, EventKind::SetChosen), before + 1);
+    let c = app.attempt().unwrap().block_set.clone().unwrap();
+    assert_eq!(
+        (c.id.as_str(), c.reason.as_str()),
+        (set.id.as_str(), "recheck booked for Friday")
+    );
+    assert_eq!(app.feature().unwrap().state, FeatureState::SetChosen);
+    assert_reopens(&app);
+}

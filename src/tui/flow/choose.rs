@@ -252,26 +252,14 @@ fn choose_set(app: &mut App, index: usize, reason: String) -> Vec<Effect> {
     let Some(s) = app.shop.sets.get(index).cloned() else {
         return Vec::new();
     };
-    if chosen_id(app, false).as_deref() == Some(s.snap.id.as_str()) {
-        // kept through a change of fixture: confirming it again is logged, so the record
-        // shows the set chosen for this fixture before the stack is built on it
-        if !app.read_only
-            && app
-                .feature()
-                .is_some_and(|f| f.state == FeatureState::FixtureChosen)
-        {
-            if let Some(a) = app.attempt_mut() {
-                a.step = Step::Stack;
-            }
-            record(
-                app,
-                EventKind::SetChosen,
-                format!("{} kept after the change of fixture", s.snap.id),
-            );
-            let mut e = vec![Effect::Save];
-            e.extend(enter_step(app, here(app), Step::Stack));
-            return e;
-        }
+    // the set already chosen goes straight on, unless a change of fixture came after it: then
+    // it is chosen again like any other (a reason asked if it is now out of date), so the
+    // record shows the set chosen for this fixture before a stack is built on it
+    let reconfirm = app
+        .feature()
+        .is_some_and(|f| f.state == FeatureState::FixtureChosen);
+    if chosen_id(app, false).as_deref() == Some(s.snap.id.as_str()) && (app.read_only || !reconfirm)
+    {
         return enter_step(app, here(app), Step::Stack);
     }
     if refuse_read_only(app) {
