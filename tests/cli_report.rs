@@ -19,7 +19,7 @@ fn text_is_the_default() {
         so.starts_with("Traveller J-2417 — DS-204 dovetail slide\n====="),
         "{so}"
     );
-    assert!(so.contains("Progress:  5 of 5 features finished"), "{so}");
+    assert!(so.contains("Progress:  7 of 7 features finished"), "{so}");
 }
 
 #[test]

@@ -64,7 +64,7 @@ fn one_feature_of_the_demo_from_fixture_to_sign_off() {
     s.keys(&["Enter"]);
     s.expect("F1 signed by JQ");
     s.keys(&["C-c"]);
-    // F2 to F5 are not done: a note for the next shift is asked; Esc leaves without one
+    // F2 to F7 are not done: a note for the next shift is asked; Esc leaves without one
     s.expect("Note for the next shift");
     s.keys(&["Escape"]);
     let end = Instant::now() + Duration::from_secs(5);

@@ -26,8 +26,8 @@ mod unix {
         parse(&fs::read_to_string(p).unwrap()).unwrap().traveller
     }
 
-    /// Version `n` of the job (the five-feature plan): odd versions keep two features, even ones
-    /// all five, so a file mixing two versions could not match either.
+    /// Version `n` of the job (the seven-feature plan): odd versions keep two features, even ones
+    /// all seven, so a file mixing two versions could not match either.
     fn version(base: &Traveller, n: u64) -> Traveller {
         let mut t = base.clone();
         t.job.notes = format!("save {n}");

@@ -22,6 +22,8 @@ fn flags_of_the_finished_sample() {
     assert_eq!(f("F3"), vec![Flag::SwappedByHand]);
     assert_eq!(f("F4"), vec![Flag::DoubtBand]);
     assert_eq!(f("F5"), vec![Flag::SwappedByHand, Flag::LargeStraightness]);
+    assert!(f("F6").is_empty(), "{:?}", f("F6"));
+    assert!(f("F7").is_empty(), "{:?}", f("F7"));
 }
 
 #[test]
@@ -92,7 +94,12 @@ fn each_format_carries_the_feature_facts() {
             "inside the doubt band",
             "large straightness",
             "TJ, 2026-11-23 17:16",
-            "5 of 5 features finished",
+            // F6 on the 5 in bar (stack-heights.csv row 5in,in,60: 4.33013 in, ×5.00002/5)
+            "0.0500(p) + 4.0000 + 0.1300 + 0.1001 + 0.0500(p) = 4.3301 in",
+            // F7 on the 10 in plate, protectors left off (10·sin 1°10' + 0.00002 in rolls)
+            "0.1030 + 0.1006 = 0.2036 in",
+            "SP10-042",
+            "7 of 7 features finished",
         ] {
             assert!(r.contains(want), "{fmt:?} lacks {want}:\n{r}");
         }
@@ -134,6 +141,6 @@ fn a_plan_reports_with_nothing_done() {
         .unwrap()
         .traveller;
     let r = render(&t, Format::Text);
-    assert!(r.contains("0 of 5 features finished"), "{r}");
+    assert!(r.contains("0 of 7 features finished"), "{r}");
     assert!(r.contains("taper 1:20"), "{r}");
 }

@@ -1,6 +1,6 @@
 //! The sample jobs: they pass `check`, and their numbers agree with tables computed outside the
 //! project. `cargo test --test traveller_samples -- --ignored regenerate` rewrites the half-done
-//! and finished travellers from the plan (the story is in `sample_story` below).
+//! and finished travellers from the plan (the story is in traveller_samples/generate.rs).
 
 #[path = "traveller_samples/generate.rs"]
 mod samples_gen;
@@ -45,6 +45,18 @@ fn half_done_job_stops_mid_sweep_with_a_handover() {
     let s = a.sweep.as_ref().unwrap();
     assert!(!s.complete() && !s.readings.is_empty());
     assert_eq!(t.next_feature().map(|f| f.id.as_str()), Some("F2"));
+    // the features after F2 are not started, and the note says so
+    for f in ["F3", "F4", "F5", "F6", "F7"] {
+        let feat = t.feature(f).unwrap();
+        assert_eq!(feat.state, FeatureState::Planned, "{f}");
+        assert!(feat.attempts.is_empty(), "{f}");
+    }
+    assert!(
+        t.handovers[0].text.ends_with("F3–F7 not started."),
+        "{}",
+        t.handovers[0].text
+    );
+    assert_eq!(t.progress(), (1, 7));
 }
 
 #[test]
@@ -65,7 +77,7 @@ fn finished_job_has_a_failed_then_passed_feature() {
             .correction
             .is_some()
     );
-    assert_eq!(t.progress(), (5, 5));
+    assert_eq!(t.progress(), (7, 7));
 }
 
 /// A row of one of the mpmath tables (tests/data/sine-tables/, copied from the shared reference
@@ -103,6 +115,61 @@ fn sample_stacks_agree_with_the_sine_table() {
     // protector blocks are allowed for in the height)
     let ends = [s.blocks.first().unwrap(), s.blocks.last().unwrap()];
     assert!(ends.iter().all(|b| b.protector), "{:?}", s.blocks);
+}
+
+/// Source: sine-tables/stack-heights.csv (mpmath, 50 digits), copied to tests/data/sine-tables/.
+#[test]
+fn the_steep_and_the_small_feature_agree_with_the_sine_table() {
+    use tiltbook::units::Unit;
+    let t = parse(&read("ds-204-finished.yaml")).unwrap().traveller;
+    // F6, 60° on SB5-117: row `5in,in,60,0,0,4.33012702` scaled by the calibrated centre
+    // 5.00002/5 gives 4.33014 in: 4.3301 in on the 0.0001 in grid, under the bar's 4.5 in
+    // largest stack (sample-jobs/demo-shop.yaml), so the direct stack is the one built
+    let row = table_row("stack-heights.csv", "5in,in,60,0,0,");
+    let f6 = t.feature("F6").unwrap();
+    let a = f6.accepted_attempt().unwrap();
+    let s = a.stack.as_ref().unwrap();
+    assert_eq!(a.fixture.as_ref().unwrap().id, "SB5-117");
+    assert_eq!(s.height, on_grid(row[3] * 5.00002 / 5.0));
+    assert_eq!(s.height.show(Unit::In), "4.3301 in");
+    assert_eq!(a.judgement.as_ref().unwrap().verdict, Verdict::Pass);
+    // F7, 1°10' on SP10-042 (centre 10.00000 in, pivot roll 1.00000 in, stack roll 0.99996 in,
+    // so H = C·sin θ + (d_p − d_r)/2 adds 0.00002 in; DOMAIN, stack height for an angle): the
+    // table has no row for 1°10'. Between its rows `10in,in,1,0,0,0.17452406` and
+    // `10in,in,2,0,0,0.34899497` the straight line at 1°10' (one sixth of the way) is 0.2036025
+    // in; sin bends so little over that degree that the line is within 0.00001 in of
+    // 10·sin(1°10') (chord error ≤ L·sin 2°·(1°)²/8 = 0.0000067 in): with the rolls' 0.00002 in,
+    // 0.2036 in on the 0.0001 in grid
+    let lo = table_row("stack-heights.csv", "10in,in,1,0,0,")[3];
+    let hi = table_row("stack-heights.csv", "10in,in,2,0,0,")[3];
+    let line = lo + (hi - lo) / 6.0;
+    let rolls = (1.00000 - 0.99996) / 2.0;
+    let f7 = t.feature("F7").unwrap();
+    let a = f7.accepted_attempt().unwrap();
+    let s = a.stack.as_ref().unwrap();
+    assert_eq!(a.fixture.as_ref().unwrap().id, "SP10-042");
+    assert_eq!(s.height, on_grid(line + rolls));
+    assert_eq!(s.height.show(Unit::In), "0.2036 in");
+    // and the same height by H = L·sin θ (the table's own method, its header) in f64
+    assert_eq!(
+        s.height,
+        on_grid(10.0 * (70.0f64 / 60.0).to_radians().sin() + rolls)
+    );
+    // two blocks of the set, its protectors left off (0.1006 + 0.103)
+    let mut sizes: Vec<String> = s.blocks.iter().map(|b| b.size.show(Unit::In)).collect();
+    sizes.sort();
+    assert_eq!(sizes, ["0.1006 in", "0.1030 in"]);
+    assert!(s.blocks.iter().all(|b| !b.protector));
+    assert_eq!(a.judgement.as_ref().unwrap().verdict, Verdict::Pass);
+    // θ = asin((H − (d_p − d_r)/2)/C) for the stack built (the method of angles-from-stack.csv,
+    // which has no row for this height): within 1" of 1°10'
+    let want = ((0.2036f64 - rolls) / 10.0).asin().to_degrees();
+    assert!(
+        (s.achieved.deg() - want).abs() < 1e-6,
+        "{}",
+        s.achieved.deg()
+    );
+    assert!((s.achieved.deg() - 70.0 / 60.0).abs() * 3600.0 < 1.0);
 }
 
 #[test]

@@ -56,7 +56,7 @@ fn review_opens_on_the_list_and_asks_the_name_first_when_unknown() {
 fn the_flags_of_the_finished_sample_are_the_ones_its_header_describes() {
     // sample-jobs/ds-204-finished.yaml says: F3 had a block swapped by hand, F4 fell in the
     // doubt band, F5 had a block swapped by hand (and its sweep is not straight); F2 (one block,
-    // protectors left off) has nothing to flag: every item was in calibration
+    // protectors left off), F6 and F7 have nothing to flag: every item was in calibration
     let t = finished_for_review();
     let tags = |id: &str| -> Vec<&'static str> {
         review_flags(&t, t.feature(id).unwrap())
@@ -69,6 +69,8 @@ fn the_flags_of_the_finished_sample_are_the_ones_its_header_describes() {
     assert_eq!(tags("F3"), vec!["swap"]);
     assert_eq!(tags("F4"), vec!["doubt"]);
     assert_eq!(tags("F5"), vec!["swap", "straight"]);
+    assert_eq!(tags("F6"), Vec::<&str>::new());
+    assert_eq!(tags("F7"), Vec::<&str>::new());
     let f4 = review_flags(&t, t.feature("F4").unwrap());
     assert!(
         f4[0].words.starts_with("accepted inside the doubt band"),
@@ -103,7 +105,7 @@ fn centres_used_past_their_due_date_with_a_reason_are_flagged_with_it() {
 #[test]
 fn the_filter_shows_only_flagged_features_and_the_selection_follows() {
     let (mut app, mut r) = review_app(finished_for_review(), Some("LV"), false);
-    assert_eq!(visible(&app).len(), 5);
+    assert_eq!(visible(&app).len(), 7);
     act(&mut app, &mut r, Action::Filter);
     let ids: Vec<String> = visible(&app)
         .iter()
@@ -123,9 +125,12 @@ fn the_filter_shows_only_flagged_features_and_the_selection_follows() {
     assert_eq!(app.doc.features[app.ui.review.sel].id, "F4");
     act(&mut app, &mut r, Action::Down);
     act(&mut app, &mut r, Action::Down);
-    assert_eq!(app.doc.features[app.ui.review.sel].id, "F5");
+    assert_eq!(
+        app.doc.features[app.ui.review.sel].id, "F5",
+        "the last flagged one (F6 and F7 have no flag)"
+    );
     act(&mut app, &mut r, Action::Filter);
-    assert_eq!(visible(&app).len(), 5);
+    assert_eq!(visible(&app).len(), 7);
     assert_eq!(
         app.doc.features[app.ui.review.sel].id, "F5",
         "kept when all are shown"
@@ -311,7 +316,7 @@ fn returning_the_whole_job_sends_back_every_finished_feature() {
     );
     assert_eq!(
         events(&app, EventKind::Returned),
-        5,
+        7,
         "one event per feature"
     );
     assert_eq!(app.doc.returns.last().unwrap().feature, None);

@@ -174,7 +174,7 @@ fn a_pass_is_signed_and_the_next_feature_opens() {
     assert_eq!(app.doc.signoffs.len(), 1);
     assert!(!app.doc.signoffs[0].digest.is_empty());
     assert_eq!(app.flow(), Some((1, Step::Fixture)), "F2 opens");
-    assert_eq!(app.doc.progress(), (1, 5));
+    assert_eq!(app.doc.progress(), (1, 7));
     assert_reopens(&app);
 }
 

@@ -9,7 +9,7 @@ use std::io::Write;
 use std::path::PathBuf;
 use std::process::ExitCode;
 
-/// The sample plan: an invented job with five angled features.
+/// The sample plan: an invented job with seven angled features.
 pub const DEMO_PLAN: &str = include_str!("../../sample-jobs/ds-204-plan.yaml");
 
 /// The environment variable that moves the data folder (for tests and portable installs).

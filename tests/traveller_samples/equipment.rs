@@ -1,7 +1,7 @@
 //! The equipment of the sample jobs, taken from the built-in demo shop (sample-jobs/demo-shop.yaml)
 //! through the adapter the screens use, so the travellers record what the screens would record
-//! when the fixture and set are chosen: the 5 in sine bar SB5-117, the 5 in sine centres SC5-310,
-//! the 5 in compound sine plate CSP5-014 and the inch-81 set BX81-A.
+//! when the fixture and set are chosen: the 5 in sine bar SB5-117, the 10 in sine plate SP10-042,
+//! the 5 in sine centres SC5-310, the 5 in compound sine plate CSP5-014 and the inch-81 set BX81-A.
 
 use tiltbook::shop::Shop;
 use tiltbook::traveller::{BlockSetSnapshot, FixtureSnapshot};
@@ -10,6 +10,7 @@ use tiltbook::tui::shop_view::{SetView, ShopView};
 pub const BAR: &str = "SB5-117";
 pub const CENTRES: &str = "SC5-310";
 pub const PLATE: &str = "CSP5-014";
+pub const PLATE10: &str = "SP10-042";
 pub const SET: &str = "BX81-A";
 
 /// The demo shop as the screens see it.
