@@ -7,6 +7,7 @@ use super::super::flags::{ReviewFlag, lead_signoff, review_flags};
 use super::super::flow::review::visible;
 use super::super::view::boxed;
 use super::cell;
+use super::review_feature::wrap;
 use crate::traveller::{Feature, Verdict};
 use ratatui::Frame;
 use ratatui::layout::{Constraint, Layout, Rect};
@@ -58,7 +59,25 @@ pub fn draw(f: &mut Frame, area: Rect, app: &App) {
         .iter()
         .filter(|x| !review_flags(doc, x).is_empty())
         .count();
-    let table_h = (vis.len().max(1) as u16 + 3).min(area.height.saturating_sub(6));
+    // the selected feature's flags are shown whole; the list gives up rows (and scrolls to
+    // keep the selection in view) before they are cut, down to three rows of features
+    let inner_w = area.width.saturating_sub(2) as usize;
+    let flag_lines: usize = doc
+        .features
+        .get(app.ui.review.sel)
+        .filter(|_| !vis.is_empty())
+        .map_or(1, |feat| {
+            review_flags(doc, feat)
+                .iter()
+                .map(|x| wrap(&format!("! {}", x.words), inner_w).len())
+                .sum::<usize>()
+                .max(1)
+        });
+    let room = area.height.saturating_sub(3);
+    let flags_h = (flag_lines as u16 + 2).max(3);
+    let table_h = (vis.len().max(1) as u16 + 3)
+        .min(room.saturating_sub(flags_h).max(6))
+        .min(area.height.saturating_sub(6));
     let [head, table, detail, job] = Layout::vertical([
         Constraint::Length(1),
         Constraint::Length(table_h),
