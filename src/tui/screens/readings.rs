@@ -112,17 +112,18 @@ pub fn draw(f: &mut Frame, area: Rect, app: &App) {
         form,
     );
 
-    let mut rows = Vec::new();
-    if let Some(fit) = s.and_then(fit_so_far) {
-        rows.push(Line::styled(
+    // the fit so far sits on the box's lower edge, so the rows go to the readings themselves
+    let summary = s.and_then(fit_so_far).map(|fit| {
+        Line::styled(
             format!(
-                "residual {:+.1}\"  straightness {}",
+                " residual {:+.1}\"  straightness {} ",
                 fit.residual.arcsec(),
                 fit.straightness.show_fine(unit)
             ),
             t.title(),
-        ));
-    }
+        )
+    });
+    let mut rows = Vec::new();
     rows.push(Line::styled(
         format!("{:>3}  {:>12}  {:>13}", "#", "at", "reading"),
         t.dim(),
@@ -151,7 +152,11 @@ pub fn draw(f: &mut Frame, area: Rect, app: &App) {
             }
         }
     }
-    f.render_widget(Paragraph::new(rows).block(boxed(&title, t)), list);
+    let mut list_box = boxed(&title, t);
+    if let Some(line) = summary {
+        list_box = list_box.title_bottom(line);
+    }
+    f.render_widget(Paragraph::new(rows).block(list_box), list);
 
     let chart_title = if s.and_then(fit_so_far).is_some() {
         "Readings ● and fitted line"
