@@ -3,6 +3,7 @@
 use super::{CliError, emit};
 use crate::blocks::{BlockSet, Condition};
 use crate::shop::{ENV_VAR, Fixture, Shop, ShopError, ShopSource, write_template};
+use crate::traveller::DecisionRule;
 use crate::units::{Length, Unit};
 use clap::Args;
 use serde_json::{Value, json};
@@ -108,7 +109,7 @@ fn set_json(s: &BlockSet, today: jiff::civil::Date) -> Value {
         "unit": s.unit.symbol(),
         "grade": s.grade.map(|g| g.to_string()),
         "calibration_due": s.calibration_due.map(|d| d.to_string()),
-        "calibration_overdue": s.calibration_due.is_some_and(|d| d <= today),
+        "calibration_overdue": s.calibration_due.is_some_and(|d| d < today),
         "resolution": s.number(s.resolution()),
         "block_count": s.blocks.len(),
         "usable_count": s.usable_count(),
@@ -133,12 +134,35 @@ fn to_json(shop: &Shop, today: jiff::civil::Date) -> Value {
         "config_file": config.map(|p| p.display().to_string()),
         "fixtures": shop.fixtures.iter().map(|f| fixture_json(f, today)).collect::<Vec<_>>(),
         "block_sets": shop.block_sets.iter().map(|s| set_json(s, today)).collect::<Vec<_>>(),
+        "settings": settings_json(&shop.settings),
     })
 }
 
+fn rule_words(r: DecisionRule) -> &'static str {
+    match r {
+        DecisionRule::Simple => "simple (pass when |deviation| <= tolerance)",
+        DecisionRule::Guarded => "guarded (pass when |deviation| + U <= tolerance)",
+    }
+}
+
+fn settings_json(s: &crate::shop::Settings) -> Value {
+    json!({
+        "decision_rule": match s.rule {
+            DecisionRule::Simple => "simple",
+            DecisionRule::Guarded => "guarded",
+        },
+        "settle_minutes": s.settle_minutes,
+        "operator": s.operator,
+        "rules": s.rules,
+        "indicator_division_in": s.indicator_resolution.number(Unit::In, 6),
+        "indicator_repeatability_in": s.indicator_repeatability.map(|r| r.number(Unit::In, 6)),
+    })
+}
+
+/// Past its due date (usable through the due date itself).
 fn due(d: Option<jiff::civil::Date>, today: jiff::civil::Date) -> String {
     match d {
-        Some(d) if d <= today => format!("due {d} (overdue)"),
+        Some(d) if d < today => format!("due {d} (overdue)"),
         Some(d) => format!("due {d}"),
         None => "due date not given".into(),
     }
@@ -223,6 +247,19 @@ fn to_text(shop: &Shop, today: jiff::civil::Date) -> String {
         if let Some(n) = &s.note {
             t.push_str(&format!("      note: {n}\n"));
         }
+    }
+    let st = &shop.settings;
+    t.push_str(&format!(
+        "\nSettings:\n  decision rule {}; stacks settle {} min; indicator division {}, repeatability {}\n  operator: {}\n",
+        rule_words(st.rule),
+        st.settle_minutes,
+        st.indicator_resolution.show_fine(Unit::In),
+        st.indicator_repeatability
+            .map_or("not given (left out of U)".into(), |r| r.show_fine(Unit::In)),
+        st.operator.as_deref().unwrap_or("asked once at the terminal"),
+    ));
+    for r in &st.rules {
+        t.push_str(&format!("  rule: {r}\n"));
     }
     t.push_str(
         "\nStandard sets for --set: inch-81, metric-88, metric-112 (complete, nothing missing).\n",

@@ -15,7 +15,7 @@ mod model;
 mod parse;
 mod values;
 
-pub use model::{Fixture, FixtureKind};
+pub use model::{Fixture, FixtureKind, Settings};
 pub use parse::SCHEMA_VERSION;
 
 use crate::blocks::{BlockSet, catalogue};
@@ -149,6 +149,7 @@ pub struct Shop {
     pub source: ShopSource,
     pub fixtures: Vec<Fixture>,
     pub block_sets: Vec<BlockSet>,
+    pub settings: Settings,
 }
 
 impl Shop {
@@ -190,27 +191,30 @@ impl Shop {
 
     /// Read a shop from YAML text; `origin` names it in messages.
     pub fn parse(text: &str, origin: &str, source: ShopSource) -> Result<Shop, ShopError> {
-        let (fixtures, block_sets) = parse::parse(text, origin)?;
+        let (fixtures, block_sets, settings) = parse::parse(text, origin)?;
         Ok(Shop {
             source,
             fixtures,
             block_sets,
+            settings,
         })
     }
 
     /// The invented demo shop built into tiltbook.
     pub fn built_in() -> Shop {
         match parse::parse(TEMPLATE, "built-in demo shop") {
-            Ok((fixtures, block_sets)) => Shop {
+            Ok((fixtures, block_sets, settings)) => Shop {
                 source: ShopSource::BuiltIn { config: None },
                 fixtures,
                 block_sets,
+                settings,
             },
             // the template is checked by the tests; an empty shop is the safe fallback
             Err(_) => Shop {
                 source: ShopSource::BuiltIn { config: None },
                 fixtures: Vec::new(),
                 block_sets: Vec::new(),
+                settings: Settings::default(),
             },
         }
     }

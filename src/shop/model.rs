@@ -1,7 +1,8 @@
 //! What the shop file describes: sine fixtures (block sets are [`crate::blocks::BlockSet`]).
 
 use crate::geometry::SineFixture;
-use crate::units::{Angle, Length, Unit};
+use crate::traveller::DecisionRule;
+use crate::units::{Angle, Length, NM_PER_INCH, Unit};
 use jiff::civil::Date;
 use serde::{Deserialize, Serialize};
 use std::fmt;
@@ -80,9 +81,10 @@ impl Fixture {
             && angle.deg() <= self.angle_range.1.deg() + 1e-9
     }
 
-    /// Is the calibration due on or before `today`?
+    /// Is the calibration past its due date on `today`? (Usable through the due date itself,
+    /// as the screens and the traveller's checks count it.)
     pub fn calibration_overdue(&self, today: Date) -> bool {
-        self.calibration_due.is_some_and(|d| d <= today)
+        self.calibration_due.is_some_and(|d| d < today)
     }
 
     /// A one-line description: id, kind, centre distance.
@@ -94,5 +96,38 @@ impl Fixture {
             self.center.exact_number(self.unit, self.unit.places()),
             self.unit
         )
+    }
+}
+
+/// What the shop decides for everyone: the `settings:` section of the shop file (every key
+/// optional).
+#[derive(Debug, Clone, PartialEq)]
+pub struct Settings {
+    /// How a verdict is reached: simple, or guarded by the expanded uncertainty.
+    pub rule: DecisionRule,
+    /// How long a stack is left to settle to room temperature.
+    pub settle_minutes: u32,
+    /// The operator at this terminal, when the shop file names one.
+    pub operator: Option<String>,
+    /// The shop's own rules shown with the cautions.
+    pub rules: Vec<String>,
+    /// One division of the indicator.
+    pub indicator_resolution: Length,
+    /// One reading's standard deviation, when the shop has measured it.
+    pub indicator_repeatability: Option<Length>,
+}
+
+impl Default for Settings {
+    fn default() -> Self {
+        Settings {
+            rule: DecisionRule::Simple,
+            // letting handled blocks settle: common practice (no source); the figure is ours
+            settle_minutes: 5,
+            operator: None,
+            rules: Vec::new(),
+            // a 0.0001 in dial test indicator: common practice (no source)
+            indicator_resolution: Length::from_nm(NM_PER_INCH / 10_000),
+            indicator_repeatability: None,
+        }
     }
 }

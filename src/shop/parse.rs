@@ -3,9 +3,10 @@
 //! each reported at the line and column of the key it is about.
 
 use super::ShopError;
-use super::model::{Fixture, FixtureKind};
+use super::model::{Fixture, FixtureKind, Settings};
 use super::values::{YCatalogue, YDate, YGrade, YLen, YMaterial, YRange, YRolls, YSize};
 use crate::blocks::{BlockSet, Condition, Protectors};
+use crate::traveller::DecisionRule;
 use crate::units::{Length, Unit};
 use serde::Deserialize;
 
@@ -21,6 +22,25 @@ struct RawShop {
     fixtures: Vec<RawFixture>,
     #[serde(default)]
     block_sets: Vec<RawSet>,
+    #[serde(default)]
+    settings: Option<RawSettings>,
+}
+
+#[derive(Debug, Default, Deserialize)]
+#[serde(deny_unknown_fields)]
+struct RawSettings {
+    #[serde(default)]
+    decision_rule: Option<DecisionRule>,
+    #[serde(default)]
+    settle_minutes: Option<u32>,
+    #[serde(default)]
+    operator: Option<String>,
+    #[serde(default)]
+    rules: Vec<String>,
+    #[serde(default)]
+    indicator_division: Option<YLen>,
+    #[serde(default)]
+    indicator_repeatability: Option<YLen>,
 }
 
 #[derive(Debug, Deserialize)]
@@ -203,7 +223,99 @@ fn yaml_error(e: &serde_yaml::Error, origin: &str) -> ShopError {
 }
 
 /// Read a shop file's text. `origin` names it in messages (a path, or "built-in demo shop").
-pub(super) fn parse(text: &str, origin: &str) -> Result<(Vec<Fixture>, Vec<BlockSet>), ShopError> {
+/// Where `key` is written in the `settings:` section (the section's line when it is not).
+fn settings_at(origin: &str, text: &str, key: &str, message: String) -> ShopError {
+    let (start, end) = section(text, "settings");
+    let line = text
+        .lines()
+        .enumerate()
+        .take(end)
+        .skip(start)
+        .find(|(_, l)| l.trim_start().starts_with(&format!("{key}:")))
+        .map_or((start + 1, 1), |(i, l)| {
+            (i + 1, l.len() - l.trim_start().len() + 1)
+        });
+    ShopError::Syntax {
+        origin: origin.to_string(),
+        line: line.0,
+        column: line.1,
+        message,
+    }
+}
+
+/// The shop's settings, checked; defaults for what is not written.
+fn settings(raw: RawSettings, origin: &str, text: &str) -> Result<Settings, ShopError> {
+    let mut s = Settings::default();
+    if let Some(r) = raw.decision_rule {
+        s.rule = r;
+    }
+    if let Some(m) = raw.settle_minutes {
+        if m > 240 {
+            return Err(settings_at(
+                origin,
+                text,
+                "settle_minutes",
+                format!(
+                    "settle_minutes {m} is more than 240 (four hours); give the minutes a stack rests, e.g. `settle_minutes: 10`"
+                ),
+            ));
+        }
+        s.settle_minutes = m;
+    }
+    if let Some(o) = raw.operator {
+        if o.trim().is_empty() {
+            return Err(settings_at(
+                origin,
+                text,
+                "operator",
+                "operator is empty; give a name or initials, or remove the line".into(),
+            ));
+        }
+        s.operator = Some(o.trim().to_string());
+    }
+    s.rules = raw
+        .rules
+        .into_iter()
+        .map(|r| r.trim().to_string())
+        .filter(|r| !r.is_empty())
+        .collect();
+    // a dial test indicator reads to 0.001 in or finer: common practice (no source)
+    let finest = Length::from_nm(crate::units::NM_PER_INCH / 1_000);
+    if let Some(d) = raw.indicator_division {
+        if d.len > finest {
+            return Err(settings_at(
+                origin,
+                text,
+                "indicator_division",
+                format!(
+                    "indicator_division {} is coarser than 0.001in; give one division of the dial test indicator, e.g. 0.0001in or 0.001mm",
+                    d.len.show(d.unit)
+                ),
+            ));
+        }
+        s.indicator_resolution = d.len;
+    }
+    if let Some(r) = raw.indicator_repeatability {
+        if r.len > finest {
+            return Err(settings_at(
+                origin,
+                text,
+                "indicator_repeatability",
+                format!(
+                    "indicator_repeatability {} is more than 0.001in; give one reading's standard deviation as measured, e.g. 0.00005in or 0.001mm",
+                    r.len.show(r.unit)
+                ),
+            ));
+        }
+        s.indicator_repeatability = Some(r.len);
+    }
+    Ok(s)
+}
+
+pub(super) fn parse(
+    text: &str,
+    origin: &str,
+) -> Result<(Vec<Fixture>, Vec<BlockSet>, Settings), ShopError> {
     let has_content = text
         .lines()
         .any(|l| !l.trim().is_empty() && !l.trim_start().starts_with('#'));
@@ -361,7 +473,8 @@ pub(super) fn parse(text: &str, origin: &str) -> Result<(Vec<Fixture>, Vec<Block
         set.note = s.note;
         sets.push(set);
     }
-    Ok((fixtures, sets))
+    let settings = settings(raw.settings.unwrap_or_default(), origin, text)?;
+    Ok((fixtures, sets, settings))
 }
 
 #[cfg(test)]

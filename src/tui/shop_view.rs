@@ -4,8 +4,8 @@
 
 use crate::blocks::{BlockSet, Condition};
 use crate::shop::{Fixture, FixtureKind as ShopKind, Shop};
-use crate::traveller::{BlockSetSnapshot, DecisionRule, FixtureKind, FixtureSnapshot};
-use crate::units::{Length, NM_PER_INCH};
+use crate::traveller::{BlockSetSnapshot, FixtureKind, FixtureSnapshot};
+use crate::units::Length;
 use jiff::civil::Date;
 
 /// One block set: what the traveller records when it is chosen, and the shop's set itself.
@@ -62,35 +62,8 @@ impl SetView {
     }
 }
 
-/// Settings the shop makes for everyone.
-#[derive(Debug, Clone, PartialEq)]
-pub struct ShopSettings {
-    pub rule: DecisionRule,
-    /// How long a stack is left to settle to room temperature.
-    pub settle_minutes: u32,
-    /// The operator at this terminal, when the shop file names one.
-    pub operator: Option<String>,
-    /// The shop's own rules shown with the cautions.
-    pub rules: Vec<String>,
-    /// One division of the indicator.
-    pub indicator_resolution: Length,
-    /// One reading's standard deviation, when the shop has measured it.
-    pub indicator_repeatability: Option<Length>,
-}
-
-impl Default for ShopSettings {
-    fn default() -> Self {
-        ShopSettings {
-            rule: DecisionRule::Simple,
-            // letting handled blocks settle: common practice (no source); the figure is ours
-            settle_minutes: 5,
-            operator: None,
-            rules: Vec::new(),
-            indicator_resolution: Length::from_nm(NM_PER_INCH / 10_000),
-            indicator_repeatability: None,
-        }
-    }
-}
+/// Settings the shop makes for everyone (from the shop file's `settings:`).
+pub use crate::shop::Settings as ShopSettings;
 
 /// Everything the screens know about the shop.
 #[derive(Debug, Clone, PartialEq, Default)]
@@ -136,7 +109,7 @@ impl ShopView {
         ShopView {
             fixtures,
             sets,
-            settings: ShopSettings::default(),
+            settings: shop.settings.clone(),
         }
     }
 }

@@ -4,6 +4,7 @@ use super::super::app::App;
 use super::super::flow::setting;
 use super::super::view::boxed;
 use super::super::widgets::setup_view::{self, SetupScene};
+use super::review_feature::wrap;
 use ratatui::Frame;
 use ratatui::layout::{Constraint, Layout, Rect};
 use ratatui::text::{Line, Span};
@@ -74,7 +75,6 @@ pub fn draw_view(f: &mut Frame, area: Rect, app: &App) {
 
 pub fn draw_safety(f: &mut Frame, area: Rect, app: &App) {
     let t = app.theme;
-    let (left, right) = split(area);
     let mut lines = Vec::new();
     for (i, c) in CAUTIONS.iter().enumerate() {
         lines.push(Line::from(vec![
@@ -95,13 +95,36 @@ pub fn draw_safety(f: &mut Frame, area: Rect, app: &App) {
             t.good(),
         ));
     }
+    // every caution and shop rule is shown whole: the text column widens, and the side view
+    // gives way altogether, before any of it is cut
+    let (left, _) = split(area);
+    let needed = |w: u16| -> u16 {
+        let inner = usize::from(w.saturating_sub(2)).max(1);
+        let rows: usize = lines
+            .iter()
+            .map(|l| {
+                let text: String = l.spans.iter().map(|s| s.content.as_ref()).collect();
+                wrap(&text, inner).len()
+            })
+            .sum();
+        u16::try_from(rows).unwrap_or(u16::MAX).saturating_add(2)
+    };
+    let width = [left.width, 50, 60]
+        .into_iter()
+        .filter(|w| *w + 20 <= area.width)
+        .find(|w| needed(*w) <= area.height)
+        .unwrap_or(area.width);
+    let [text, view] =
+        Layout::horizontal([Constraint::Length(width), Constraint::Min(0)]).areas(area);
     f.render_widget(
         Paragraph::new(lines)
             .wrap(Wrap { trim: false })
             .block(boxed("Before any reading or cut", t)),
-        left,
+        text,
     );
-    draw_view(f, right, app);
+    if view.width >= 20 {
+        draw_view(f, view, app);
+    }
 }
 
 pub fn draw_settle(f: &mut Frame, area: Rect, app: &App) {
