@@ -94,3 +94,33 @@ proptest! {
         prop_assert_eq!(to_yaml(&back).expect("renders"), y);
     }
 }
+
+proptest! {
+    #![proptest_config(ProptestConfig::with_cases(40))]
+
+    /// A big job is written in pieces side by side; the pieces must give exactly the bytes of
+    /// writing it in one pass, whatever the text in it.
+    #[test]
+    fn a_big_job_written_in_pieces_is_the_same_bytes(
+        texts in proptest::collection::vec(awkward(), 6),
+        names in proptest::collection::vec(awkward(), 50),
+    ) {
+        let mut t = job_with(&texts);
+        let first = t.features[0].clone();
+        t.features = names
+            .iter()
+            .enumerate()
+            .map(|(k, name)| {
+                let mut f = first.clone();
+                f.id = format!("F{}", k + 1);
+                f.name = name.clone();
+                f.description = texts[k % texts.len()].clone();
+                f
+            })
+            .collect();
+        let y = to_yaml(&t).expect("renders");
+        prop_assert_eq!(&y, &serde_yaml::to_string(&t).expect("renders in one pass"));
+        let back = parse(&y).map_err(|e| TestCaseError::fail(format!("{e}\n{y}")))?.traveller;
+        prop_assert_eq!(&back, &t);
+    }
+}

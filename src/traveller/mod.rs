@@ -11,6 +11,7 @@ pub mod report;
 pub mod schema;
 mod stamp;
 pub mod validate;
+mod write;
 
 pub use model::*;
 pub use schema::{LoadError, Loaded, parse, to_yaml};

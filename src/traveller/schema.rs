@@ -173,11 +173,11 @@ pub fn parse(text: &str) -> Result<Loaded, LoadError> {
 /// Write a traveller as YAML (always the current schema).
 pub fn to_yaml(t: &Traveller) -> Result<String, serde_yaml::Error> {
     if t.schema == SCHEMA_VERSION {
-        return serde_yaml::to_string(t);
+        return super::write::yaml(t);
     }
     let mut t = t.clone();
     t.schema = SCHEMA_VERSION;
-    serde_yaml::to_string(&t)
+    super::write::yaml(&t)
 }
 
 /// Bring an older file's tree up to the current schema, one version at a time.
