@@ -97,8 +97,8 @@ pub fn draw_fixtures(f: &mut Frame, area: Rect, app: &App) {
                     " u {}",
                     u.show_fine(crate::units::Unit::Mm)
                 )),
-                fx.roll_pivot.show(unit),
-                fx.roll_stack.show(unit)
+                fx.roll_pivot.number(unit, unit.places() + 1),
+                fx.roll_stack.show_fine(unit)
             )),
         ]));
         if let Some((_, note)) = fx.description.split_once("; ") {
