@@ -45,6 +45,10 @@ fn awkward() -> impl Strategy<Value = String> {
         Just("`tick`".to_string()),
         Just("\u{feff}bom".to_string()),
         Just("carriage\rreturn".to_string()),
+        Just("line\u{2028}separator\nand a break".to_string()),
+        Just("paragraph\u{2029}separator".to_string()),
+        Just("next\u{85}line".to_string()),
+        Just("crlf\r\nline".to_string()),
         "\\PC{0,40}",
         any::<String>(),
     ]

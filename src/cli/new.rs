@@ -38,17 +38,19 @@ fn parse_unit(s: &str) -> Result<Unit, String> {
     }
 }
 
-/// A one-line text as a YAML value, quoted when it needs to be.
-fn scalar(what: &str, text: &str) -> Result<String, CliError> {
+/// A one-line text as a YAML value, quoted when it needs to be; `fix` says what to type instead
+/// when it is empty or not on one line.
+fn scalar(what: &str, text: &str, fix: &str) -> Result<String, CliError> {
     let text = text.trim();
     if text.is_empty() {
-        return Err(usage(format!(
-            "the {what} is empty; give it in quotes, e.g. --{what} \"DS-204 dovetail slide\""
-        )));
+        return Err(usage(format!("the {what} is empty; {fix}")));
     }
-    if text.chars().any(char::is_control) {
+    if text
+        .chars()
+        .any(|c| c.is_control() || matches!(c, '\u{2028}' | '\u{2029}'))
+    {
         return Err(usage(format!(
-            "the {what} has a line break or another control character; give it on one line"
+            "the {what} has a line break or another control character; {fix}"
         )));
     }
     let y = serde_yaml::to_string(text).map_err(|e| usage(format!("the {what}: {e}")))?;
@@ -70,10 +72,21 @@ pub fn skeleton(
     drawing: Option<&str>,
     unit: Unit,
 ) -> Result<String, CliError> {
-    let id = scalar("job id", id)?;
-    let part_v = scalar("part", part)?;
+    let id = scalar(
+        "job id taken from the file name",
+        id,
+        "name the file after the job, e.g. j-2417.yaml",
+    )?;
+    let part_v = scalar(
+        "part",
+        part,
+        "give it on one line in quotes, e.g. --part \"DS-204 dovetail slide\"",
+    )?;
     let drawing = match drawing {
-        Some(d) => format!("  drawing: {}\n", scalar("drawing", d)?),
+        Some(d) => format!(
+            "  drawing: {}\n",
+            scalar("drawing", d, "give it on one line, e.g. --drawing DS-204")?
+        ),
         None => "  # drawing: DS-204\n".into(),
     };
     let (unit_word, example_len) = match unit {
@@ -140,9 +153,14 @@ pub fn run(args: &NewArgs, out: &mut dyn Write) -> Result<ExitCode, CliError> {
             )));
         }
     };
-    f.write_all(text.as_bytes())
-        .and_then(|()| f.sync_all())
-        .map_err(|e| CliError::Io(format!("cannot write {name}: {e}")))?;
+    if let Err(e) = f.write_all(text.as_bytes()).and_then(|()| f.sync_all()) {
+        // a part-written plan would only stand in the way of the next try
+        drop(f);
+        let _ = std::fs::remove_file(&args.file);
+        return Err(CliError::Io(format!(
+            "cannot write {name}: {e}; nothing was left behind: free some space or choose another folder, then run the same command again"
+        )));
+    }
     emit(
         out,
         &format!(
@@ -171,6 +189,11 @@ mod tests {
         assert_eq!(loaded.job.part, "bracket: left # 2");
         assert_eq!(loaded.job.drawing, "yes");
         assert!(skeleton("J-1", "two\nlines", None, Unit::In).is_err());
+        assert!(skeleton("J-1", "two\u{2028}lines", None, Unit::In).is_err());
+        let e = skeleton(" ", "part", None, Unit::In)
+            .unwrap_err()
+            .to_string();
+        assert!(e.contains("name the file after the job"), "{e}");
         assert!(skeleton("J-1", "  ", None, Unit::In).is_err());
     }
 }

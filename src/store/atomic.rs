@@ -44,6 +44,14 @@ pub fn sync_folder(dir: &Path) -> io::Result<()> {
 /// Random characters in a temporary file's name: `.NAME.` + these + `.tmp`.
 const RAND: usize = 6;
 
+/// The temporary files of a save of the traveller named NAME: `.NAME.XXXXXX.tmp`, from the
+/// prefix `.NAME.`.
+fn temp_named(prefix: &str) -> tempfile::Builder<'_, 'static> {
+    let mut b = tempfile::Builder::new();
+    b.prefix(prefix).rand_bytes(RAND).suffix(".tmp");
+    b
+}
+
 /// Is `file` one of the temporary files a save of the traveller named `name` makes?
 fn is_leftover(file: &str, name: &str) -> bool {
     file.strip_prefix(&format!(".{name}."))
@@ -78,11 +86,8 @@ pub fn write_atomic(path: &Path, bytes: &[u8]) -> io::Result<()> {
         .file_name()
         .map(|n| n.to_string_lossy().into_owned())
         .unwrap_or_else(|| "traveller".into());
-    let mut tmp = tempfile::Builder::new()
-        .prefix(&format!(".{name}."))
-        .rand_bytes(RAND)
-        .suffix(".tmp")
-        .tempfile_in(&dir)?;
+    let prefix = format!(".{name}.");
+    let mut tmp = temp_named(&prefix).tempfile_in(&dir)?;
     tmp.write_all(bytes)?;
     tmp.flush()?;
     tmp.as_file().sync_all()?;
@@ -93,7 +98,7 @@ pub fn write_atomic(path: &Path, bytes: &[u8]) -> io::Result<()> {
         )));
     }
     if path.exists() {
-        copy_durably(path, &backup_path(path), &dir, &name)?;
+        copy_durably(path, &backup_path(path), &dir, &prefix)?;
     }
     tmp.persist(path).map_err(|e| e.error)?;
     sync_folder(&dir)
@@ -102,21 +107,13 @@ pub fn write_atomic(path: &Path, bytes: &[u8]) -> io::Result<()> {
 /// Make `to` a whole copy of `from`: a second name for the same file where the file system
 /// allows it (the old version was made durable when it was saved), else a copy through a
 /// temporary file. Either way `to` is replaced in one rename, so it is always whole.
-fn copy_durably(from: &Path, to: &Path, dir: &Path, name: &str) -> io::Result<()> {
-    let link = tempfile::Builder::new()
-        .prefix(&format!(".{name}."))
-        .rand_bytes(RAND)
-        .suffix(".tmp")
-        .make_in(dir, |p| fs::hard_link(from, p));
+fn copy_durably(from: &Path, to: &Path, dir: &Path, prefix: &str) -> io::Result<()> {
+    let link = temp_named(prefix).make_in(dir, |p| fs::hard_link(from, p));
     if let Ok(link) = link {
         return link.persist(to).map(|_| ()).map_err(|e| e.error);
     }
     let old = fs::read(from)?;
-    let mut tmp = tempfile::Builder::new()
-        .prefix(&format!(".{name}."))
-        .rand_bytes(RAND)
-        .suffix(".tmp")
-        .tempfile_in(dir)?;
+    let mut tmp = temp_named(prefix).tempfile_in(dir)?;
     tmp.write_all(&old)?;
     tmp.as_file().sync_all()?;
     tmp.persist(to).map_err(|e| e.error)?;

@@ -36,12 +36,21 @@ struct Tail<'a> {
     events: &'a [Event],
 }
 
+/// Characters the YAML writer also breaks lines at (YAML 1.2 §5.4 counts only `\n` and `\r` as
+/// line breaks, but the writer treats these as breaks too): where one is written as it is, the
+/// lines of a piece cannot be found by `\n` alone, and the job is written in one pass instead.
+const OTHER_BREAKS: [char; 4] = ['\r', '\u{85}', '\u{2028}', '\u{2029}'];
+
 /// `features` as the items of a block list at the top level: `- ` before each feature's first
 /// line, two spaces before its other lines (empty lines, as in a block of text, stay empty).
-fn items(features: &[Feature]) -> Result<String, serde_yaml::Error> {
+/// `None` when a feature's text holds a line break other than `\n`.
+fn items(features: &[Feature]) -> Result<Option<String>, serde_yaml::Error> {
     let mut out = String::new();
     for f in features {
         let one = serde_yaml::to_string(f)?;
+        if one.contains(OTHER_BREAKS) {
+            return Ok(None);
+        }
         for (i, line) in one.lines().enumerate() {
             if i == 0 {
                 out.push_str("- ");
@@ -52,7 +61,7 @@ fn items(features: &[Feature]) -> Result<String, serde_yaml::Error> {
             out.push('\n');
         }
     }
-    Ok(out)
+    Ok(Some(out))
 }
 
 /// The YAML of `t`, written as it stands (the caller sets the schema version).
@@ -91,17 +100,24 @@ pub(super) fn yaml(t: &Traveller) -> Result<String, serde_yaml::Error> {
         .clamp(1, 4);
     let per = features.len().div_ceil(threads);
     let (parts, head, tail) = std::thread::scope(|s| {
+        // a thread the system will not start leaves its run to this one
         let runs: Vec<_> = features
             .chunks(per)
-            .map(|run| s.spawn(move || items(run)))
+            .map(|run| {
+                std::thread::Builder::new()
+                    .spawn_scoped(s, move || items(run))
+                    .map_err(|_| run)
+            })
             .collect();
         let head = serde_yaml::to_string(&head);
         let tail = serde_yaml::to_string(&tail);
-        let parts: Vec<Result<String, serde_yaml::Error>> = runs
+        let parts: Vec<Result<Option<String>, serde_yaml::Error>> = runs
             .into_iter()
-            .map(|h| {
-                h.join()
-                    .unwrap_or_else(|_| Err(serde::ser::Error::custom("a writing thread failed")))
+            .map(|r| match r {
+                Ok(h) => h
+                    .join()
+                    .unwrap_or_else(|_| Err(serde::ser::Error::custom("a writing thread failed"))),
+                Err(run) => items(run),
             })
             .collect();
         (parts, head, tail)
@@ -109,7 +125,10 @@ pub(super) fn yaml(t: &Traveller) -> Result<String, serde_yaml::Error> {
     let mut out = head?;
     out.push_str("features:\n");
     for p in parts {
-        out.push_str(&p?);
+        match p? {
+            Some(p) => out.push_str(&p),
+            None => return serde_yaml::to_string(t),
+        }
     }
     let tail = tail?;
     // a tail with nothing in it is written as an empty mapping, which the whole job leaves out
@@ -148,19 +167,37 @@ mod tests {
 
     #[test]
     fn pieces_give_the_same_bytes_as_one_pass() {
+        let same = |t: &Traveller| {
+            let y = yaml(t).unwrap();
+            assert_eq!(y, serde_yaml::to_string(t).unwrap());
+            assert_eq!(&super::super::parse(&y).unwrap().traveller, t);
+        };
         for copies in [6, 7, 50] {
             let mut t = big(copies);
             // text with line breaks and blank lines, written as blocks of text
             t.features[0].description = "first line\n\n  indented after a blank\nlast".into();
             t.features[3].name = "x: y # z".into();
-            assert_eq!(yaml(&t).unwrap(), serde_yaml::to_string(&t).unwrap());
+            same(&t);
             // and with nothing after the features
-            t.notes.clear();
-            t.handovers.clear();
-            t.returns.clear();
-            t.signoffs.clear();
-            t.events.clear();
-            assert_eq!(yaml(&t).unwrap(), serde_yaml::to_string(&t).unwrap());
+            let mut bare = t.clone();
+            bare.notes.clear();
+            bare.handovers.clear();
+            bare.returns.clear();
+            bare.signoffs.clear();
+            bare.events.clear();
+            same(&bare);
+            // line breaks the writer knows besides \n: written in one pass
+            t.features[5].description = "one\u{2028}two\nthree".into();
+            t.features[6].description = "one\u{2029}two\u{85}three\r\nfour".into();
+            same(&t);
         }
+    }
+
+    #[test]
+    fn a_piece_with_another_line_break_is_given_up() {
+        let mut t = big(1);
+        assert!(items(&t.features).unwrap().is_some());
+        t.features[0].description = "one\u{2028}two\nthree".into();
+        assert!(items(&t.features).unwrap().is_none());
     }
 }
