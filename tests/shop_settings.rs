@@ -101,3 +101,30 @@ fn the_demo_shop_uses_the_guarded_rule_like_its_sample_jobs() {
     assert_eq!(s.settle_minutes, 10);
     assert!(!s.rules.is_empty());
 }
+
+#[test]
+fn the_shop_listing_shows_the_settings() {
+    let run = |json: bool| {
+        let mut c = std::process::Command::new(env!("CARGO_BIN_EXE_tiltbook"));
+        c.arg("shop").env_remove("TILTBOOK_SHOP");
+        // a config folder with no shop file in it: the built-in demo shop is listed
+        let dir = tempfile::tempdir().unwrap();
+        c.env("XDG_CONFIG_HOME", dir.path()).env("HOME", dir.path());
+        if json {
+            c.arg("--json");
+        }
+        let out = c.output().unwrap();
+        assert_eq!(out.status.code(), Some(0), "{out:?}");
+        String::from_utf8_lossy(&out.stdout).into_owned()
+    };
+    let text = run(false);
+    assert!(text.contains("decision rule: guarded"), "{text}");
+    assert!(
+        text.contains("division 0.00010 in (0.0025 mm), repeatability 0.00005 in (0.0013 mm)"),
+        "{text}"
+    );
+    assert!(text.contains("rule: Blocks go back in their box"), "{text}");
+    let v: serde_json::Value = serde_json::from_str(&run(true)).unwrap();
+    assert_eq!(v["settings"]["decision_rule"], "guarded");
+    assert_eq!(v["settings"]["settle_minutes"], 10);
+}

@@ -138,6 +138,11 @@ fn to_json(shop: &Shop, today: jiff::civil::Date) -> Value {
     })
 }
 
+/// A small length in both units: `0.00010 in (0.0025 mm)`.
+fn both_units(l: Length) -> String {
+    format!("{} ({})", l.show_fine(Unit::In), l.show_fine(Unit::Mm))
+}
+
 fn rule_words(r: DecisionRule) -> &'static str {
     match r {
         DecisionRule::Simple => "simple (pass when |deviation| <= tolerance)",
@@ -250,12 +255,12 @@ fn to_text(shop: &Shop, today: jiff::civil::Date) -> String {
     }
     let st = &shop.settings;
     t.push_str(&format!(
-        "\nSettings:\n  decision rule {}; stacks settle {} min; indicator division {}, repeatability {}\n  operator: {}\n",
+        "\nSettings:\n  decision rule: {}\n  stacks settle {} min before the readings\n  indicator: division {}, repeatability {}\n  operator: {}\n",
         rule_words(st.rule),
         st.settle_minutes,
-        st.indicator_resolution.show_fine(Unit::In),
+        both_units(st.indicator_resolution),
         st.indicator_repeatability
-            .map_or("not given (left out of U)".into(), |r| r.show_fine(Unit::In)),
+            .map_or("not given (left out of U)".into(), both_units),
         st.operator.as_deref().unwrap_or("asked once at the terminal"),
     ));
     for r in &st.rules {
