@@ -393,3 +393,83 @@ fn a_signed_value_edited_by_hand_shows_as_changed_after_sign_off() {
     act(&mut app, &mut r, Action::Filter);
     assert_eq!(visible(&app).first(), Some(&0), "F1 is now flagged");
 }
+
+#[test]
+fn only_a_second_person_with_the_job_opened_for_review_signs_as_lead() {
+    // the operator's own screens: the review list is there to look, not to sign
+    let (mut app, mut r) = app_with(finished_for_review(), Some("TJ"), false);
+    act(&mut app, &mut r, Action::Review);
+    assert_eq!(app.screen, Screen::Review);
+    let before = app.doc.signoffs.len();
+    act(&mut app, &mut r, Action::SignFeature);
+    assert!(app.prompt.is_none(), "no confirm step offered");
+    assert!(
+        app.status
+            .as_ref()
+            .is_some_and(|s| s.text.contains("--review")),
+        "{:?}",
+        app.status
+    );
+    act(&mut app, &mut r, Action::ReturnFeature);
+    assert!(app.prompt.is_none());
+    assert_eq!(app.doc.signoffs.len(), before);
+
+    // opened for review by TJ, who signed F3 as its operator (common practice (no source):
+    // the lead's signature is an independent check)
+    let t = finished_for_review();
+    assert!(
+        t.signoffs.iter().any(|s| s.role == Role::Operator
+            && s.by == "TJ"
+            && s.feature.as_deref() == Some("F3"))
+    );
+    let (mut app, mut r) = review_app(t, Some("TJ"), false);
+    app.ui.review.sel = index_of(&app, "F3");
+    act(&mut app, &mut r, Action::SignFeature);
+    assert!(app.prompt.is_none());
+    let said = app
+        .status
+        .as_ref()
+        .map(|s| s.text.clone())
+        .unwrap_or_default();
+    assert!(said.contains("TJ signed F3 as its operator"), "{said}");
+    act(&mut app, &mut r, Action::SignJob);
+    assert!(app.prompt.is_none(), "nor the job");
+    // another lead may
+    let (mut app, mut r) = review_app(finished_for_review(), Some("LV"), false);
+    app.ui.review.sel = index_of(&app, "F3");
+    act(&mut app, &mut r, Action::SignFeature);
+    assert_eq!(
+        prompt_kind(&app),
+        Some(PromptKind::LeadSign(Some(index_of(&app, "F3"))))
+    );
+}
+
+#[test]
+fn a_job_the_lead_signed_says_so_on_the_overview() {
+    let (app, _r) = app_with(sample("ds-204-finished.yaml"), Some("TJ"), true);
+    let next = tiltbook::tui::screens::overview::next_for_job(&app);
+    assert!(
+        next.contains("signed by LV (lead)") && next.contains("nothing is left to do"),
+        "{next}"
+    );
+    let (app, _r) = app_with(finished_for_review(), Some("TJ"), true);
+    let next = tiltbook::tui::screens::overview::next_for_job(&app);
+    assert!(next.contains("goes to the lead for review"), "{next}");
+}
+
+#[test]
+fn a_return_says_which_signatures_it_takes_back() {
+    let t = sample("ds-204-finished.yaml");
+    let (mut app, mut r) = review_app(t, Some("LV"), false);
+    app.ui.review.sel = index_of(&app, "F3");
+    act(&mut app, &mut r, Action::ReturnFeature);
+    let hint = app
+        .prompt
+        .as_ref()
+        .map(|p| p.hint.clone())
+        .unwrap_or_default();
+    assert!(
+        hint.contains("withdraws") && hint.contains("LV's sign-off of the whole job"),
+        "{hint}"
+    );
+}

@@ -8,6 +8,7 @@ use ratatui::layout::{Alignment, Constraint, Layout, Rect};
 use ratatui::style::Style;
 use ratatui::text::{Line, Span, Text};
 use ratatui::widgets::{Block, Borders, Clear, Paragraph, Wrap};
+use unicode_width::UnicodeWidthStr;
 
 /// The smallest terminal the screens are laid out for.
 pub const MIN_W: u16 = 80;
@@ -40,18 +41,30 @@ pub fn too_small(f: &mut Frame, theme: Theme) {
 
 /// The footer line: keys and what they do here, from the keymap.
 pub fn footer(f: &mut Frame, area: Rect, ctx: Ctx, typing: bool, hide: &[Action], theme: Theme) {
+    // a key and what it does stay on one line: lines break only between them
+    let width = usize::from(area.width);
+    let mut lines: Vec<Line> = Vec::new();
     let mut spans: Vec<Span> = Vec::new();
-    for (i, (keys, label)) in keymap::footer(ctx, typing, hide).into_iter().enumerate() {
-        if i > 0 {
+    let mut used = 0;
+    for (keys, label) in keymap::footer(ctx, typing, hide) {
+        let label = format!(" {label}");
+        let w = keys.width() + label.width();
+        if used > 0 && used + 2 + w > width {
+            lines.push(Line::from(std::mem::take(&mut spans)));
+            used = 0;
+        }
+        if used > 0 {
             spans.push(Span::raw("  "));
+            used += 2;
         }
         spans.push(Span::styled(keys, theme.key()));
-        spans.push(Span::raw(format!(" {label}")));
+        spans.push(Span::raw(label));
+        used += w;
     }
-    f.render_widget(
-        Paragraph::new(Line::from(spans)).wrap(Wrap { trim: true }),
-        area,
-    );
+    if !spans.is_empty() {
+        lines.push(Line::from(spans));
+    }
+    f.render_widget(Paragraph::new(lines).wrap(Wrap { trim: true }), area);
 }
 
 /// The help overlay for a screen, from the keymap.

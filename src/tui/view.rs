@@ -59,7 +59,10 @@ pub fn draw(f: &mut Frame, app: &App) {
 /// Footer entries that do nothing right now.
 fn hidden_keys(app: &App) -> Vec<Action> {
     let mut hide = Vec::new();
-    if matches!(app.screen, Screen::Review | Screen::ReviewFeature { .. }) && app.read_only {
+    // signing and sending back are the lead's, with the job opened for review
+    if matches!(app.screen, Screen::Review | Screen::ReviewFeature { .. })
+        && (app.read_only || !app.review_mode)
+    {
         hide.extend([
             Action::SignFeature,
             Action::SignJob,

@@ -9,7 +9,7 @@ use super::super::keymap::{Action, Input};
 use super::super::screens::overview::state_text;
 use super::super::screens::review_feature::page;
 use super::super::update::refuse_read_only;
-use crate::traveller::{Feature, FeatureState, Role, Scope, Stamp};
+use crate::traveller::{Feature, FeatureState, Role, Scope, Stamp, Traveller};
 
 /// The features the list shows (indices), all or only the flagged ones.
 pub fn visible(app: &App) -> Vec<usize> {
@@ -163,6 +163,13 @@ fn lead_action(app: &mut App, feature: usize, action: Action) -> Vec<Effect> {
     if refuse_read_only(app) {
         return Vec::new();
     }
+    if !app.review_mode {
+        app.say(
+            Level::Warn,
+            "signing as lead and sending back are for the lead: quit, then open the job with `tiltbook open FILE --review --as NAME`",
+        );
+        return Vec::new();
+    }
     let sign = matches!(action, Action::SignFeature | Action::SignJob);
     let refused = if sign {
         can_sign(app, target)
@@ -193,12 +200,31 @@ fn lead_action(app: &mut App, feature: usize, action: Action) -> Vec<Effect> {
             carry: String::new(),
         }
     } else {
+        // say which signatures the return takes back, before it is sent
+        let mut withdrawn: Vec<String> = Vec::new();
+        if let Some(f) = target.and_then(|i| app.doc.features.get(i))
+            && let Some(s) = lead_signoff(&app.doc, Some(&f.id))
+        {
+            withdrawn.push(format!("{}'s sign-off of {}", s.by, f.id));
+        }
+        if let Some(s) = lead_signoff(&app.doc, None) {
+            withdrawn.push(format!("{}'s sign-off of the whole job", s.by));
+        }
+        let takes_back = if withdrawn.is_empty() {
+            String::new()
+        } else {
+            format!(
+                " This withdraws {}; it is signed again after the rework.",
+                withdrawn.join(" and ")
+            )
+        };
         Prompt {
             kind: PromptKind::Return(target),
             title: format!("Return {what} to the operator"),
-            hint: "Type what to check or redo; the operator sees it first on opening the job. \
-                   Enter sends it back, Esc cancels."
-                .into(),
+            hint: format!(
+                "Type what to check or redo; the operator sees it first on opening the job.{takes_back} \
+                 Enter sends it back, Esc cancels."
+            ),
             field: Some(Field::new(300)),
             error: None,
             carry: String::new(),
@@ -207,10 +233,30 @@ fn lead_action(app: &mut App, feature: usize, action: Action) -> Vec<Effect> {
     Vec::new()
 }
 
+/// The features `who` signed as operator: a lead's signature is a second person's check.
+fn signed_as_operator(t: &Traveller, who: &str) -> Vec<String> {
+    let who = who.trim();
+    t.signoffs
+        .iter()
+        .filter(|s| s.role == Role::Operator && s.by.trim().eq_ignore_ascii_case(who))
+        .filter_map(|s| s.feature.clone())
+        .collect()
+}
+
 /// Can the lead sign this feature (or the job)? The refusal says why and what to do.
 fn can_sign(app: &App, target: Option<usize>) -> Result<(), String> {
     let t = &app.doc;
+    let own = signed_as_operator(t, &app.operator);
     match target.and_then(|i| t.features.get(i)) {
+        Some(f) if own.contains(&f.id) => Err(format!(
+            "{} signed {} as its operator; the lead's signature is a second person's check: another lead signs it",
+            app.operator, f.id
+        )),
+        None if !own.is_empty() => Err(format!(
+            "{} signed {} as operator; the lead's signature on the job is a second person's check: another lead signs it",
+            app.operator,
+            own.join(", ")
+        )),
         Some(f) => {
             if f.state == FeatureState::Returned {
                 return Err(format!(

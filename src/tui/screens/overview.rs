@@ -182,7 +182,16 @@ pub fn next_for_job(app: &App) -> String {
                 "{} is finished; next is {}: select it (↑↓) and press Enter",
                 feat.id, n.id
             ),
-            None => "every feature is finished: the traveller goes to the lead for review".into(),
+            None => match super::super::flags::lead_signoff(&app.doc, None) {
+                Some(s) => format!(
+                    "the job is signed by {} (lead) on {}: nothing is left to do",
+                    s.by,
+                    s.at.short()
+                ),
+                None => {
+                    "every feature is finished: the traveller goes to the lead for review".into()
+                }
+            },
         },
         Some(feat) if feat.state == FeatureState::Returned => format!(
             "{} was sent back by the lead: press Enter to see it, then try again (n) or sign again",

@@ -142,9 +142,13 @@ pub fn draw_settle(f: &mut Frame, area: Rect, app: &App) {
         "Blocks warmed by the hand grow: let the stack and the fixture come to room temperature before the readings.",
     )];
     let ratio;
+    let mut label = None;
     match (recorded, app.ui.settle_left) {
         (Some(s), _) => {
-            ratio = 1.0;
+            ratio = if s.done { 1.0 } else { 0.0 };
+            if !s.done {
+                label = Some("skipped");
+            }
             lines.push(if s.done {
                 Line::styled(
                     format!("✓ settled ({} min)", s.minutes.unwrap_or(0)),
@@ -167,13 +171,15 @@ pub fn draw_settle(f: &mut Frame, area: Rect, app: &App) {
         }
     }
     f.render_widget(Paragraph::new(lines).wrap(Wrap { trim: false }), text);
-    f.render_widget(
-        Gauge::default()
-            .block(boxed("Settle", t))
-            .ratio(ratio.clamp(0.0, 1.0))
-            .gauge_style(t.good()),
-        gauge,
-    );
+    let mut bar = Gauge::default()
+        .block(boxed("Settle", t))
+        .ratio(ratio.clamp(0.0, 1.0))
+        .gauge_style(t.good());
+    // a skipped wait is not shown as a full bar
+    if let Some(l) = label {
+        bar = bar.label(l).gauge_style(t.warn());
+    }
+    f.render_widget(bar, gauge);
     f.render_widget(
         Paragraph::new(vec![Line::styled(
             "Keep hands off the stack while it settles.",
