@@ -45,8 +45,37 @@ pub fn arcsec(a: crate::units::Angle) -> String {
     format!("{:+.1}\"", a.arcsec())
 }
 
+/// The same angle in degrees, minutes and seconds, as tolerances are written, when it is a
+/// minute or more: `= -0°04'58.5" · ` (empty below a minute).
+pub fn as_minutes(a: crate::units::Angle) -> String {
+    if a.arcsec().abs() < 60.0 {
+        return String::new();
+    }
+    let s = a.dms(1);
+    let s = if s.starts_with('-') {
+        s
+    } else {
+        format!("+{s}")
+    };
+    format!("= {s} · ")
+}
+
 #[cfg(test)]
 mod tests {
+    #[test]
+    fn a_minute_or_more_is_also_given_in_minutes() {
+        use crate::units::Angle;
+        assert_eq!(super::as_minutes(Angle::from_deg(59.9 / 3600.0)), "");
+        assert_eq!(
+            super::as_minutes(Angle::from_deg(-298.5 / 3600.0)),
+            "= -0°04'58.5\" · "
+        );
+        assert_eq!(
+            super::as_minutes(Angle::from_deg(618.8 / 3600.0)),
+            "= +0°10'18.8\" · "
+        );
+    }
+
     #[test]
     fn fit_cuts_and_pads() {
         assert_eq!(super::fit("abc", 5), "abc  ");

@@ -5,7 +5,7 @@ use super::super::app::App;
 use super::super::chrome::row_mark;
 use super::super::flow::verdict::{After, choices};
 use super::super::view::boxed;
-use super::arcsec;
+use super::{arcsec, as_minutes};
 use crate::traveller::{FeatureState, Verdict};
 use ratatui::Frame;
 use ratatui::layout::{Constraint, Layout, Rect};
@@ -178,12 +178,16 @@ fn one_view(
     lines.push(row(
         "Residual δ",
         arcsec(j.residual),
-        format!("the surface {rise}"),
+        format!("{}the surface {rise}", as_minutes(j.residual)),
     ));
     lines.push(row(
         "Deviation",
         arcsec(j.deviation),
-        format!("set {achieved}, tolerance {}", feat.tolerance),
+        format!(
+            "{}set {achieved}, tolerance {}",
+            as_minutes(j.deviation),
+            feat.tolerance
+        ),
     ));
     if feat.kind == crate::traveller::FeatureKind::Taper {
         lines.push(row(
@@ -285,8 +289,9 @@ pub fn draw_sign(f: &mut Frame, area: Rect, app: &App) {
                 )));
             }
             _ => lines.push(Line::raw(format!(
-                "deviation {}  U {:.1}\"  tolerance {}",
+                "deviation {} {} U {:.1}\"  tolerance {}",
                 arcsec(j.deviation),
+                as_minutes(j.deviation).trim_end_matches(" · "),
                 j.u.arcsec(),
                 feat.tolerance
             ))),
