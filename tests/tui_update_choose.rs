@@ -329,3 +329,33 @@ fn the_set_kept_through_a_fixture_change_is_chosen_again_with_a_reason_when_out_
     assert_eq!(app.feature().unwrap().state, FeatureState::SetChosen);
     assert_reopens(&app);
 }
+
+#[test]
+fn a_swap_that_takes_the_angle_outside_the_tolerance_is_recorded_with_a_warning() {
+    let (mut app, mut r) = app();
+    to_stack(&mut app, &mut r);
+    let before = app.attempt().unwrap().stack.clone().unwrap();
+    act(&mut app, &mut r, Action::Down); // the first block after the protector
+    let planned = before.blocks[1].size;
+    // a block of very different size (the 81-piece set's 0.950 in; common practice (no source))
+    let used = Length::inches(0.95);
+    assert_ne!(planned, used);
+    act(&mut app, &mut r, Action::Swap);
+    typ(&mut app, &mut r, "0.950");
+    enter(&mut app, &mut r);
+    assert!(app.prompt.is_none(), "{:?}", app.prompt);
+    assert_eq!(
+        app.attempt().unwrap().stack.clone().unwrap().blocks[1].size,
+        used
+    );
+    let said = app
+        .status
+        .as_ref()
+        .map(|s| s.text.clone())
+        .unwrap_or_default();
+    assert!(
+        said.contains("outside the tolerance") && said.contains("swap again"),
+        "{said}"
+    );
+    assert_reopens(&app);
+}

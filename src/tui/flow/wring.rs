@@ -316,9 +316,30 @@ pub fn answer_swap(app: &mut App, pos: usize, text: String) -> Result<Vec<Effect
             planned.show(unit),
         ),
     );
-    app.say(
-        Level::Done,
-        format!("swap recorded: the angle is now worked out from what was built ({words})"),
-    );
+    // a size far from the planned one (a slip of the finger, the wrong block from the box)
+    // is recorded as typed, but not let pass quietly
+    let outside = app
+        .feature()
+        .filter(|f| f.kind != crate::traveller::FeatureKind::Compound)
+        .and_then(|f| {
+            let want = f.setting_angle()?;
+            let got = now.stack.as_ref()?.achieved;
+            let dev = crate::units::Angle::from_deg(got.deg() - want.deg());
+            (!f.tolerance.contains(dev)).then(|| (got, dev, f.tolerance))
+        });
+    match outside {
+        Some((got, dev, tol)) => app.say(
+            Level::Warn,
+            format!(
+                "swap recorded, but the stack now sets {} ({} from the setting), outside the tolerance {tol}: check the block wrung, or swap again (s)",
+                got.dms(1),
+                dev.arcsec_signed(1)
+            ),
+        ),
+        None => app.say(
+            Level::Done,
+            format!("swap recorded: the angle is now worked out from what was built ({words})"),
+        ),
+    }
     Ok(vec![Effect::Save])
 }
