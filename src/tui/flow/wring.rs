@@ -325,7 +325,7 @@ pub fn answer_swap(app: &mut App, pos: usize, text: String) -> Result<Vec<Effect
             let want = f.setting_angle()?;
             let got = now.stack.as_ref()?.achieved;
             let dev = crate::units::Angle::from_deg(got.deg() - want.deg());
-            (!f.tolerance.contains(dev)).then(|| (got, dev, f.tolerance))
+            (!f.tolerance.contains(dev)).then_some((got, dev, f.tolerance))
         });
     match outside {
         Some((got, dev, tol)) => app.say(
