@@ -2,13 +2,13 @@
 //! next step, status, footer) and any prompt or help on top.
 
 use super::app::{App, Level, PromptKind, STEPS, Screen, step_name};
-use super::chrome::{self, Frame5};
+use super::chrome;
 use super::keymap::Action;
 use super::screens;
 use super::theme::Theme;
 use crate::traveller::{Feature, FeatureKind, Step};
 use ratatui::Frame;
-use ratatui::layout::Rect;
+use ratatui::layout::{Constraint, Layout, Rect};
 use ratatui::style::Style;
 use ratatui::text::{Line, Span};
 use ratatui::widgets::{Block, Borders, Clear, Paragraph, Wrap};
@@ -44,8 +44,23 @@ pub fn draw(f: &mut Frame, app: &App) {
         }
     }
     title(f, fr.title, app);
-    chrome::next_step(f, fr.next, &next_words(app), theme);
-    status(f, &fr, app);
+    // the next step and the status share three lines: a one-line next step leaves the status
+    // two, so a longer message is not cut
+    let next = next_words(app);
+    let whole = Rect {
+        height: fr.next.height + fr.status.height,
+        ..fr.next
+    };
+    let next_h = u16::try_from(
+        super::screens::review_feature::wrap(&format!(" NEXT  {next}"), usize::from(whole.width))
+            .len(),
+    )
+    .unwrap_or(2)
+    .clamp(1, fr.next.height.max(1));
+    let [next_area, status_area] =
+        Layout::vertical([Constraint::Length(next_h), Constraint::Min(0)]).areas(whole);
+    chrome::next_step(f, next_area, &next, theme);
+    status(f, status_area, app);
     let hide = hidden_keys(app);
     chrome::footer(f, fr.footer, app.ctx(), app.typing(), &hide, theme);
     if let Some(p) = &app.prompt {
@@ -137,7 +152,7 @@ fn title(f: &mut Frame, area: Rect, app: &App) {
     f.render_widget(Paragraph::new(Line::from(spans)), area);
 }
 
-fn status(f: &mut Frame, fr: &Frame5, app: &App) {
+fn status(f: &mut Frame, area: Rect, app: &App) {
     let t = app.theme;
     let Some(s) = &app.status else { return };
     let (tag, style): (&str, Style) = match s.level {
@@ -150,8 +165,9 @@ fn status(f: &mut Frame, fr: &Frame5, app: &App) {
         Paragraph::new(Line::from(vec![
             Span::styled(tag, style),
             Span::styled(s.text.clone(), style),
-        ])),
-        fr.status,
+        ]))
+        .wrap(Wrap { trim: true }),
+        area,
     );
 }
 
