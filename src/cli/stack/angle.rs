@@ -3,8 +3,7 @@
 
 use super::super::{CliError, emit, usage};
 use super::common::{
-    Chosen, FixtureChoice, candidates, choose_set, fixture_of, fixture_warnings, kind_warning,
-    load_shop, step_of,
+    Chosen, Equipment, FixtureChoice, candidates, equipment, fixture_warnings, kind_warning,
 };
 use super::remedy;
 use super::show::{
@@ -15,7 +14,7 @@ use super::{RemedyChoice, StackArgs};
 use crate::blocks::small::{SmallAngle, poor_reason, remedies};
 use crate::blocks::{SolveError, Stack};
 use crate::geometry::{SetupAdvice, SetupPlan, SineFixture, Taper, plan};
-use crate::shop::{FixtureKind, Shop};
+use crate::shop::FixtureKind;
 use crate::units::{Angle, Length, Unit};
 use serde_json::{Value, json};
 use std::io::Write;
@@ -74,19 +73,13 @@ pub fn run(args: &StackArgs, out: &mut dyn Write) -> Result<ExitCode, CliError> 
     let asked = asked(args)?;
     let angle = asked.setting;
     SineFixture::check_angle(angle).map_err(usage)?;
-    let needs_shop = args.fixture.is_some() || args.set.is_some();
-    let shop: Option<Shop> = if needs_shop {
-        Some(load_shop(args)?)
-    } else {
-        None
-    };
-    let fx = fixture_of(args, shop.as_ref())?;
-    let chosen = match (&args.set, &shop) {
-        (Some(id), Some(shop)) => Some(choose_set(shop, id, args.protect)?),
-        _ => None,
-    };
-    let unit = chosen.as_ref().map(|c| c.set.unit).unwrap_or(fx.unit);
-    let step = step_of(chosen.as_ref(), unit);
+    let Equipment {
+        shop,
+        fx,
+        chosen,
+        unit,
+        step,
+    } = equipment(args)?;
     let largest = fx.fixture.as_ref().map(|f| f.largest_stack);
     let advice = plan(&fx.sine, angle, step, largest, unit).map_err(usage)?;
     let kinds: &[FixtureKind] = if asked.taper.is_some() {

@@ -18,6 +18,40 @@ pub struct Chosen {
     pub notes: Vec<String>,
 }
 
+/// What a stack command works with: the shop (read only when `--fixture` or `--set` names
+/// something in it), the fixture, the set, the unit heights are shown in and the step they are
+/// rounded to.
+pub struct Equipment {
+    pub shop: Option<Shop>,
+    pub fx: FixtureChoice,
+    pub chosen: Option<Chosen>,
+    pub unit: Unit,
+    pub step: Length,
+}
+
+pub fn equipment(args: &StackArgs) -> Result<Equipment, CliError> {
+    let needs_shop = args.fixture.is_some() || args.set.is_some();
+    let shop = if needs_shop {
+        Some(load_shop(args)?)
+    } else {
+        None
+    };
+    let fx = fixture_of(args, shop.as_ref())?;
+    let chosen = match (&args.set, &shop) {
+        (Some(id), Some(shop)) => Some(choose_set(shop, id, args.protect)?),
+        _ => None,
+    };
+    let unit = chosen.as_ref().map(|c| c.set.unit).unwrap_or(fx.unit);
+    let step = step_of(chosen.as_ref(), unit);
+    Ok(Equipment {
+        shop,
+        fx,
+        chosen,
+        unit,
+        step,
+    })
+}
+
 pub fn load_shop(args: &StackArgs) -> Result<Shop, CliError> {
     Shop::load(args.shop.as_deref()).map_err(|e| CliError::Usage(e.to_string()))
 }

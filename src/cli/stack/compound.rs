@@ -4,7 +4,7 @@
 
 use super::super::{CliError, emit, usage};
 use super::StackArgs;
-use super::common::{choose_set, fixture_of, fixture_warnings, kind_warning, load_shop, step_of};
+use super::common::{Equipment, equipment, fixture_warnings, kind_warning};
 use super::show::{
     CAUTION, closing, num, round_deg, round2, row, secs, set_words, stack_json, stack_text,
     worn_note,
@@ -12,7 +12,7 @@ use super::show::{
 use crate::blocks::plates::{angle_between_planes, compound_stacks, views_for_plates};
 use crate::blocks::{SolveError, Stack};
 use crate::geometry::{STEEP_FROM_DEG, compound, true_slope};
-use crate::shop::{FixtureKind, Shop};
+use crate::shop::FixtureKind;
 use crate::units::{Angle, Length};
 use serde_json::{Value, json};
 use std::io::Write;
@@ -47,19 +47,13 @@ struct Plate {
 pub fn run(args: &StackArgs, text: &str, out: &mut dyn Write) -> Result<ExitCode, CliError> {
     let (a, b) = views(text)?;
     let setting = compound(a, b).map_err(|e| usage(format!("--compound: {e}")))?;
-    let needs_shop = args.fixture.is_some() || args.set.is_some();
-    let shop: Option<Shop> = if needs_shop {
-        Some(load_shop(args)?)
-    } else {
-        None
-    };
-    let fx = fixture_of(args, shop.as_ref())?;
-    let chosen = match (&args.set, &shop) {
-        (Some(id), Some(shop)) => Some(choose_set(shop, id, args.protect)?),
-        _ => None,
-    };
-    let unit = chosen.as_ref().map(|c| c.set.unit).unwrap_or(fx.unit);
-    let step = step_of(chosen.as_ref(), unit);
+    let Equipment {
+        shop: _,
+        fx,
+        chosen,
+        unit,
+        step,
+    } = equipment(args)?;
     let sine = fx.sine;
     let (near_ideal, other_ideal) = setting.heights(&sine, &sine).map_err(usage)?;
     let mut warnings = Vec::new();

@@ -11,7 +11,7 @@ use super::super::solve::{SmallCheck, Solution, SolveJob};
 use super::{height_step, remedy};
 use crate::blocks::small::Candidate;
 use crate::geometry::plan;
-use crate::traveller::{Attempt, Stack, StackBlock};
+use crate::traveller::{Attempt, Feature, FixtureSnapshot, Stack, StackBlock};
 use crate::units::{Angle, Length};
 
 // ---------------------------------------------------------------- the stacks of an attempt
@@ -98,21 +98,22 @@ fn judged_before(app: &App) -> Option<&Attempt> {
         .filter(|p| p.fixture.as_ref().is_some_and(|c| &c.id == fid) && p.judgement.is_some())
 }
 
+/// The feature being worked and the fixture its attempt chose, or what is missing.
+fn open_fixture(app: &App) -> Result<(&Feature, &FixtureSnapshot), String> {
+    let f = app.feature().ok_or("no feature is open")?;
+    let a = f.current_attempt().ok_or("no attempt is open")?;
+    let fid = &a.fixture.as_ref().ok_or("choose the fixture first")?.id;
+    let fx = app
+        .doc
+        .fixture(fid)
+        .ok_or_else(|| format!("the fixture {fid} is not in the traveller"))?;
+    Ok((f, fx))
+}
+
 /// The height to build with one stack: a failed attempt's corrected height when this attempt
 /// follows one on the same fixture, else the setting angle's height rounded to the set's step.
 pub fn target_height(app: &App) -> Result<Length, String> {
-    let f = app.feature().ok_or("no feature is open")?;
-    let a = f.current_attempt().ok_or("no attempt is open")?;
-    let fid = a
-        .fixture
-        .as_ref()
-        .ok_or("choose the fixture first")?
-        .id
-        .clone();
-    let fx = app
-        .doc
-        .fixture(&fid)
-        .ok_or_else(|| format!("the fixture {fid} is not in the traveller"))?;
+    let (f, fx) = open_fixture(app)?;
     if let Some(c) = judged_before(app)
         .and_then(|p| p.judgement.as_ref())
         .and_then(|j| j.correction.as_ref())
@@ -155,18 +156,7 @@ pub fn candidates(app: &App, angle: Angle, current: &str) -> Vec<Candidate> {
 
 /// What to ask the solver for this attempt.
 fn job_for(app: &App, protectors: bool) -> Result<SolveJob, String> {
-    let f = app.feature().ok_or("no feature is open")?;
-    let a = f.current_attempt().ok_or("no attempt is open")?;
-    let fid = a
-        .fixture
-        .as_ref()
-        .ok_or("choose the fixture first")?
-        .id
-        .clone();
-    let fx = app
-        .doc
-        .fixture(&fid)
-        .ok_or_else(|| format!("the fixture {fid} is not in the traveller"))?;
+    let (f, fx) = open_fixture(app)?;
     let geo = geometry(fx);
     let before = judged_before(app);
     let judged = before.and_then(|p| p.judgement.as_ref());
@@ -221,7 +211,7 @@ fn job_for(app: &App, protectors: bool) -> Result<SolveJob, String> {
             fixture: geo,
             angle,
             largest: fx.max_stack,
-            candidates: candidates(app, angle, &fid),
+            candidates: candidates(app, angle, &fx.id),
         }),
     })
 }
